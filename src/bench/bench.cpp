@@ -1,0 +1,75 @@
+#include "bench/bench.hpp"
+
+#include <fmt/format.h>
+
+#include <chrono>
+#include <functional>
+
+#include "chain/chain.hpp"
+#include "chain/profile.hpp"
+#include "core/option.hpp"
+#include "race/duel.hpp"
+
+namespace overshoot {
+
+namespace {
+
+std::uint64_t fnv1a(std::uint64_t h, const std::string& s) {
+    for (unsigned char c : s) {
+        h ^= c;
+        h *= 1099511628211ULL;
+    }
+    return h;
+}
+
+std::string digits(double x) { return fmt::format("{:.12g}", x); }
+
+std::string duel_digest(const DuelResult& r) {
+    return digits(static_cast<double>(r.p_a_wins)) + " " + digits(static_cast<double>(r.p_b_wins)) + " " +
+           digits(static_cast<double>(r.p_tie)) + " " + digits(static_cast<double>(r.p_neither));
+}
+
+}  // namespace
+
+BenchReport run_bench() {
+    BenchReport rep;
+    rep.signature = 1469598103934665603ULL;
+    auto timed = [&](const std::string& name, const std::function<std::string()>& f) {
+        auto t0 = std::chrono::steady_clock::now();
+        std::string res = f();
+        auto t1 = std::chrono::steady_clock::now();
+        double ms = std::chrono::duration<double, std::milli>(t1 - t0).count();
+        rep.items.push_back({name, ms, res});
+        rep.total_milliseconds += ms;
+        rep.signature = fnv1a(rep.signature, name + "=" + res + ";");
+    };
+    auto duel_on = [](int length, const char* a, const char* b, Order order) {
+        Board board = make_board(length, Overshoot::stay, {});
+        Chain ca = build_chain(board, parse_option(a));
+        Chain cb = build_chain(board, parse_option(b));
+        return duel_digest(duel(ca, cb, order));
+    };
+    timed("duel 1d6 2d6 on 600", [&] { return duel_on(600, "1d6", "2d6", Order::simultaneous); });
+    timed("duel 5d12 1d6 on 80", [&] { return duel_on(80, "5d12", "1d6", Order::simultaneous); });
+    timed("duel 1d6 2d6 on 100, coin", [&] { return duel_on(100, "1d6", "2d6", Order::coin); });
+    timed("duel 2d6 3d6 on 10000", [&] { return duel_on(10000, "2d6", "3d6", Order::simultaneous); });
+    timed("duel bounce 1d6 2d6 on 60 with jumps", [&] {
+        Board board = make_board(60, Overshoot::bounce, {{5, 20}, {44, 13}, {30, 52}});
+        Chain ca = build_chain(board, parse_option("1d6"));
+        Chain cb = build_chain(board, parse_option("2d6"));
+        return duel_digest(duel(ca, cb, Order::a_first));
+    });
+    timed("profile 1d6..6d6 on 10000", [&] {
+        Board board = make_board(10000, Overshoot::stay, {});
+        std::string out;
+        for (int k = 1; k <= 6; ++k) {
+            Chain c = build_chain(board, parse_option(fmt::format("{}d6", k)));
+            Profile p = profile(c);
+            out += digits(p.p_finish) + " " + digits(p.mean_turns_given_finish) + " ";
+        }
+        return out;
+    });
+    return rep;
+}
+
+}  // namespace overshoot

@@ -1,0 +1,118 @@
+#include "chain/chain.hpp"
+
+#include <algorithm>
+#include <boost/graph/adjacency_list.hpp>
+#include <boost/graph/breadth_first_search.hpp>
+#include <boost/graph/reverse_graph.hpp>
+
+#include "core/limits.hpp"
+
+namespace overshoot {
+
+namespace {
+
+// Where one move of `m` squares from `s` ends, after the overshoot rule and jumps.
+int destination(const Board& b, int s, int m) {
+    const int n = b.length;
+    int t = s + m;
+    if (t < n) return b.resolve[t];
+    if (t == n) return n;
+    switch (b.rule) {
+        case Overshoot::stay: return s;
+        case Overshoot::pass: return n;
+        case Overshoot::bounce: {
+            int excess = t - n;
+            if (excess > n) return b.resolve[0];
+            return b.resolve[n - excess];
+        }
+    }
+    return s;
+}
+
+void mark_stuck(Chain& c) {
+    using Graph = boost::adjacency_list<boost::vecS, boost::vecS, boost::bidirectionalS>;
+    const int n = c.length;
+    Graph g(static_cast<std::size_t>(n) + 1);
+    for (int s = 0; s < n; ++s)
+        for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
+            if (c.dest[k] != s) boost::add_edge(static_cast<std::size_t>(s), static_cast<std::size_t>(c.dest[k]), g);
+    // Squares that can reach the finish are those the finish reaches backwards.
+    auto rg = boost::make_reverse_graph(g);
+    std::vector<boost::default_color_type> color(boost::num_vertices(g), boost::white_color);
+    auto cmap = boost::make_iterator_property_map(color.begin(), boost::get(boost::vertex_index, rg));
+    boost::breadth_first_search(rg, static_cast<std::size_t>(n), boost::color_map(cmap));
+    c.stuck.assign(static_cast<std::size_t>(n), 0);
+    for (int s = 0; s < n; ++s) c.stuck[s] = color[s] == boost::white_color ? 1 : 0;
+}
+
+}  // namespace
+
+std::uint64_t chain_memory_estimate(const Board& board, const Option& option) {
+    std::uint64_t entries = static_cast<std::uint64_t>(board.length) *
+                            static_cast<std::uint64_t>(option.max_move() + 1);
+    // dest + weight + prob per entry, graph edges, per-square arrays.
+    return entries * (4 + 8 + 16 + 32) + static_cast<std::uint64_t>(board.length) * 128;
+}
+
+Chain build_chain(const Board& board, const Option& option) {
+    limits::check_memory(chain_memory_estimate(board, option), "the chain of this option on this board");
+    Chain c;
+    const int n = board.length;
+    c.length = n;
+    c.denominator = option.denominator;
+    c.forward_only = board.forward_only();
+    c.max_move = option.max_move();
+    c.row_start.assign(static_cast<std::size_t>(n) + 1, 0);
+    c.stay_weight.assign(n, 0);
+    c.finish_weight.assign(n, 0);
+    const long double den = static_cast<long double>(option.denominator);
+    std::vector<std::pair<int, std::uint64_t>> row;
+    std::vector<int> in_degree(static_cast<std::size_t>(n) + 1, 0);
+    for (int s = 0; s < n; ++s) {
+        row.clear();
+        for (int m = 0; m <= option.max_move(); ++m)
+            if (option.weight[m] != 0) row.emplace_back(destination(board, s, m), option.weight[m]);
+        std::sort(row.begin(), row.end());
+        for (std::size_t i = 0; i < row.size(); ++i) {
+            if (!c.dest.empty() && static_cast<std::int64_t>(c.dest.size()) > c.row_start[s] &&
+                c.dest.back() == row[i].first) {
+                c.weight.back() += row[i].second;
+                continue;
+            }
+            c.dest.push_back(row[i].first);
+            c.weight.push_back(row[i].second);
+        }
+        c.row_start[s + 1] = static_cast<std::int64_t>(c.dest.size());
+        for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k) {
+            if (c.dest[k] == s) c.stay_weight[s] = c.weight[k];
+            if (c.dest[k] == n) c.finish_weight[s] = c.weight[k];
+            ++in_degree[c.dest[k]];
+        }
+    }
+    c.prob.resize(c.weight.size());
+    for (std::size_t k = 0; k < c.weight.size(); ++k) c.prob[k] = static_cast<long double>(c.weight[k]) / den;
+    c.stay.resize(n);
+    c.leave.resize(n);
+    c.finish.resize(n);
+    for (int s = 0; s < n; ++s) {
+        c.stay[s] = static_cast<long double>(c.stay_weight[s]) / den;
+        // Computed from integers, never as 1 - stay: heavy options stay with
+        // probability within 1e-6 of 1 and the subtraction would lose digits.
+        c.leave[s] = static_cast<long double>(option.denominator - c.stay_weight[s]) / den;
+        c.finish[s] = static_cast<long double>(c.finish_weight[s]) / den;
+    }
+    c.max_in_degree = *std::max_element(in_degree.begin(), in_degree.end());
+    c.resting.resize(n);
+    for (int s = 0; s < n; ++s) c.resting[s] = board.resolve[s] == s ? 1 : 0;
+    mark_stuck(c);
+    return c;
+}
+
+std::vector<int> stuck_squares(const Chain& c) {
+    std::vector<int> out;
+    for (int s = 0; s < c.length; ++s)
+        if (c.stuck[s] && c.resting[s]) out.push_back(s);
+    return out;
+}
+
+}  // namespace overshoot

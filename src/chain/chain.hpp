@@ -1,0 +1,48 @@
+#pragma once
+// The Markov chain of one option on one board: where a piece on each square can
+// be after one turn. Squares 0..length-1 are live; `length` is the finish.
+#include <cstdint>
+#include <vector>
+
+#include "core/board.hpp"
+#include "core/option.hpp"
+
+namespace overshoot {
+
+struct Chain {
+    int length = 0;          // N; destination N means "finished"
+    std::uint64_t denominator = 1;
+    bool forward_only = false;
+    int max_move = 0;
+
+    // Row s lists the distinct destinations of one turn from square s (merged
+    // weights), including s itself when the turn can end in place.
+    std::vector<std::int64_t> row_start;  // size N+1
+    std::vector<int> dest;
+    std::vector<std::uint64_t> weight;    // exact, over `denominator`
+    std::vector<long double> prob;        // weight / denominator
+
+    // Per square, exact integer weights of the three fates of one turn.
+    std::vector<std::uint64_t> stay_weight;    // back on s
+    std::vector<std::uint64_t> finish_weight;  // reaches N
+    std::vector<long double> stay;             // stay_weight / denominator
+    std::vector<long double> leave;            // (denominator - stay_weight) / denominator, exact
+    std::vector<long double> finish;           // finish_weight / denominator
+
+    std::vector<char> stuck;    // 1 when the finish cannot be reached from s
+    std::vector<char> resting;  // 0 for jump sources: no piece ever rests there
+    int max_in_degree = 0;    // most sources feeding one destination (rounding bound)
+
+    int rows() const { return length; }
+};
+
+// Builds the chain; throws LimitError when its size would exceed the memory cap.
+Chain build_chain(const Board& board, const Option& option);
+
+// Bytes build_chain would allocate (an upper estimate), for refusing early.
+std::uint64_t chain_memory_estimate(const Board& board, const Option& option);
+
+// Squares from which the finish is unreachable (Boost.Graph reverse search).
+std::vector<int> stuck_squares(const Chain& chain);
+
+}  // namespace overshoot

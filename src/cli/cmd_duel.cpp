@@ -1,0 +1,42 @@
+// overshoot duel A B: the exact race of two options on one board.
+#include <memory>
+
+#include "chain/chain.hpp"
+#include "cli/common.hpp"
+#include "cli/registry.hpp"
+#include "race/duel.hpp"
+#include "render/race.hpp"
+
+namespace overshoot::cli {
+namespace {
+
+struct DuelArgs {
+    BoardFlags board;
+    std::vector<std::string> specs;
+    std::string method = "auto";
+};
+
+void run(const DuelArgs& a) {
+    Setup s = resolve_setup(a.board, a.specs, 2, 2);
+    DuelSettings ds;
+    ds.method = parse_duel_method(a.method);
+    Chain ca = build_chain(s.board, s.options[0]);
+    Chain cb = build_chain(s.board, s.options[1]);
+    DuelResult r = duel(ca, cb, s.order, ds);
+    if (a.board.json)
+        emit(render::duel_json(s.board, s.order, s.options[0], s.options[1], r).dump(2));
+    else
+        emit(render::duel_text(s.board, s.order, s.options[0], s.options[1], r));
+}
+
+const Registration reg(20, [](CLI::App& app) {
+    auto args = std::make_shared<DuelArgs>();
+    auto* cmd = app.add_subcommand("duel", "probability that option A finishes before option B, with a proven bound");
+    cmd->add_option("specs", args->specs, "two option specs or scenario names")->expected(0, 2);
+    add_board_flags(*cmd, args->board);
+    cmd->add_option("--method", args->method, "auto, pairs, zone, series or product (docs/method.md)");
+    cmd->callback([args] { run(*args); });
+});
+
+}  // namespace
+}  // namespace overshoot::cli

@@ -1,0 +1,241 @@
+#include "core/option.hpp"
+
+#include <fmt/format.h>
+
+#include <numeric>
+
+#include "core/error.hpp"
+#include "core/limits.hpp"
+
+namespace overshoot {
+
+int Option::min_move() const {
+    for (std::size_t m = 0; m < weight.size(); ++m)
+        if (weight[m] != 0) return static_cast<int>(m);
+    return 0;
+}
+
+long double Option::probability(int move) const {
+    if (move < 0 || move > max_move()) return 0.0L;
+    return static_cast<long double>(weight[move]) / static_cast<long double>(denominator);
+}
+
+double Option::mean() const {
+    long double s = 0;
+    for (std::size_t m = 0; m < weight.size(); ++m) s += static_cast<long double>(m) * weight[m];
+    return static_cast<double>(s / denominator);
+}
+
+namespace {
+
+using u64 = std::uint64_t;
+__extension__ typedef unsigned __int128 u128;
+
+struct Dist {
+    std::vector<u64> w{1};  // a point mass at 0
+    u64 den = 1;
+};
+
+class Parser {
+public:
+    explicit Parser(std::string_view text) : text_(text) {}
+
+    Dist parse() {
+        skip();
+        if (pos_ >= text_.size()) fail("is empty");
+        Dist total = term();
+        skip();
+        while (pos_ < text_.size() && text_[pos_] == '+') {
+            ++pos_;
+            Dist next = term();
+            total = convolve(total, next);
+            skip();
+        }
+        if (pos_ < text_.size()) fail(fmt::format("unexpected '{}'", text_[pos_]));
+        return total;
+    }
+
+private:
+    std::string_view text_;
+    std::size_t pos_ = 0;
+
+    [[noreturn]] void fail(const std::string& what) const {
+        throw InputError(fmt::format("option spec '{}' at column {}: {}", text_,
+                                     std::min(pos_, text_.size()) + 1, what));
+    }
+
+    void skip() {
+        while (pos_ < text_.size() && (text_[pos_] == ' ' || text_[pos_] == '\t')) ++pos_;
+    }
+
+    bool peek_digit() {
+        skip();
+        return pos_ < text_.size() && text_[pos_] >= '0' && text_[pos_] <= '9';
+    }
+
+    // A non-negative integer no larger than `cap`.
+    u64 integer(u64 cap, const char* what) {
+        skip();
+        if (pos_ < text_.size() && text_[pos_] == '-') fail(fmt::format("{} must not be negative", what));
+        if (!peek_digit()) fail(fmt::format("expected {}", what));
+        u64 v = 0;
+        while (pos_ < text_.size() && text_[pos_] >= '0' && text_[pos_] <= '9') {
+            v = v * 10 + static_cast<u64>(text_[pos_] - '0');
+            if (v > cap) fail(fmt::format("{} is larger than the limit {}", what, cap));
+            ++pos_;
+        }
+        return v;
+    }
+
+    void expect(char c) {
+        skip();
+        if (pos_ >= text_.size()) fail(fmt::format("expected '{}' before the end", c));
+        if (text_[pos_] != c) fail(fmt::format("expected '{}', found '{}'", c, text_[pos_]));
+        ++pos_;
+    }
+
+    bool accept(char c) {
+        skip();
+        if (pos_ < text_.size() && text_[pos_] == c) {
+            ++pos_;
+            return true;
+        }
+        return false;
+    }
+
+    static void reduce(Dist& d) {
+        u64 g = d.den;
+        for (u64 x : d.w) g = std::gcd(g, x);
+        if (g > 1) {
+            for (u64& x : d.w) x /= g;
+            d.den /= g;
+        }
+        while (d.w.size() > 1 && d.w.back() == 0) d.w.pop_back();
+    }
+
+    Dist convolve(const Dist& a, const Dist& b) {
+        u128 den = static_cast<u128>(a.den) * b.den;
+        if (den > limits::max_denominator)
+            fail("the distribution's denominator exceeds 2^62 (too many or too large dice)");
+        std::size_t size = a.w.size() + b.w.size() - 1;
+        if (size - 1 > static_cast<std::size_t>(limits::max_move))
+            fail(fmt::format("a move larger than the limit {}", limits::max_move));
+        Dist r;
+        r.w.assign(size, 0);
+        r.den = static_cast<u64>(den);
+        for (std::size_t i = 0; i < a.w.size(); ++i) {
+            if (a.w[i] == 0) continue;
+            for (std::size_t j = 0; j < b.w.size(); ++j)
+                r.w[i + j] += a.w[i] * b.w[j];  // bounded by den <= 2^62
+        }
+        reduce(r);
+        return r;
+    }
+
+    Dist power(const Dist& d, u64 n) {
+        Dist result;  // point mass at 0
+        Dist base = d;
+        while (n > 0) {
+            if (n & 1) result = convolve(result, base);
+            n >>= 1;
+            if (n > 0) base = convolve(base, base);
+        }
+        return result;
+    }
+
+    Dist term() {
+        skip();
+        if (pos_ >= text_.size()) fail("expected a term before the end");
+        u64 count = 1;
+        bool have_count = false;
+        if (peek_digit()) {
+            count = integer(limits::max_move, "a number");
+            have_count = true;
+        }
+        skip();
+        char c = pos_ < text_.size() ? text_[pos_] : '\0';
+        if (c == 'd' || c == 'D') {
+            if (have_count && count == 0) fail("the number of dice must be at least 1");
+            if (count > static_cast<u64>(limits::max_dice))
+                fail(fmt::format("more than {} dice", limits::max_dice));
+            ++pos_;
+            u64 sides = integer(limits::max_sides, "the number of sides");
+            if (sides == 0) fail("a die needs at least 1 side");
+            Dist die;
+            die.w.assign(sides + 1, 1);
+            die.w[0] = 0;
+            die.den = sides;
+            return power(die, count);
+        }
+        if (c == '[') {
+            if (have_count && count == 0) fail("the number of dice must be at least 1");
+            if (count > static_cast<u64>(limits::max_dice))
+                fail(fmt::format("more than {} dice", limits::max_dice));
+            ++pos_;
+            Dist die;
+            die.w.clear();
+            die.den = 0;
+            if (accept(']')) fail("a die needs at least one face");
+            do {
+                u64 face = integer(limits::max_move, "a face");
+                if (die.w.size() <= face) die.w.resize(face + 1, 0);
+                ++die.w[face];
+                if (++die.den > static_cast<u64>(limits::max_faces))
+                    fail(fmt::format("more than {} faces", limits::max_faces));
+            } while (accept(','));
+            expect(']');
+            reduce(die);
+            return power(die, count);
+        }
+        if (c == '{') {
+            if (have_count) fail("a spinner cannot take a count; write it as a sum");
+            ++pos_;
+            Dist sp;
+            sp.w.clear();
+            sp.den = 0;
+            std::size_t sectors = 0;
+            if (accept('}')) fail("a spinner needs at least one move");
+            do {
+                u64 move = integer(limits::max_move, "a move");
+                expect(':');
+                u64 w = integer(limits::max_denominator, "a weight");
+                if (w == 0) fail("a weight must be at least 1");
+                if (sp.w.size() <= move) sp.w.resize(move + 1, 0);
+                if (sp.w[move] != 0) fail(fmt::format("move {} is listed twice", move));
+                sp.w[move] = w;
+                if (static_cast<u128>(sp.den) + w > limits::max_denominator)
+                    fail("the weights add up to more than 2^62");
+                sp.den += w;
+                if (++sectors > static_cast<std::size_t>(limits::max_faces))
+                    fail(fmt::format("more than {} moves", limits::max_faces));
+            } while (accept(','));
+            expect('}');
+            reduce(sp);
+            return sp;
+        }
+        if (have_count) {  // a constant number of squares
+            Dist k;
+            k.w.assign(count + 1, 0);
+            k.w[count] = 1;
+            return k;
+        }
+        if (c == '\0') fail("expected a term before the end");
+        fail(fmt::format("unexpected '{}'", c));
+    }
+};
+
+}  // namespace
+
+Option parse_option(std::string_view spec, std::string name) {
+    Dist d = Parser(spec).parse();
+    Option o;
+    o.name = std::move(name);
+    o.spec = std::string(spec);
+    o.weight = std::move(d.w);
+    o.denominator = d.den;
+    return o;
+}
+
+Option parse_option(std::string_view spec) { return parse_option(spec, std::string(spec)); }
+
+}  // namespace overshoot

@@ -1,0 +1,31 @@
+#pragma once
+// A movement option: an exact distribution of the number of squares moved per
+// turn, kept as integer weights over one common denominator.
+#include <cstdint>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace overshoot {
+
+struct Option {
+    std::string name;                    // as shown to the user
+    std::string spec;                    // the spec as typed
+    std::vector<std::uint64_t> weight;   // weight[m] = ways to move m squares
+    std::uint64_t denominator = 1;       // sum of weights (gcd-reduced)
+
+    int max_move() const { return static_cast<int>(weight.size()) - 1; }
+    int min_move() const;
+    long double probability(int move) const;
+    double mean() const;
+};
+
+// Parses the spec grammar of docs/options.md (NdS, [faces], N[faces],
+// {move:weight,...}, constants, sums with '+'). Throws InputError naming the
+// position of the problem.
+Option parse_option(std::string_view spec);
+
+// Same, with a display name other than the spec.
+Option parse_option(std::string_view spec, std::string name);
+
+}  // namespace overshoot

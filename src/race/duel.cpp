@@ -1,0 +1,332 @@
+#include "race/duel.hpp"
+
+#include <fmt/format.h>
+
+#include <Eigen/Sparse>
+#include <Eigen/SparseLU>
+#include <algorithm>
+#include <cmath>
+
+#include "chain/series.hpp"
+#include "core/error.hpp"
+#include "core/limits.hpp"
+#include "race/pairs.hpp"
+
+namespace overshoot {
+
+std::string_view to_string(DuelMethod m) {
+    switch (m) {
+        case DuelMethod::automatic: return "auto";
+        case DuelMethod::pairs: return "pairs";
+        case DuelMethod::zone: return "zone";
+        case DuelMethod::series: return "series";
+        case DuelMethod::product: return "product";
+    }
+    return "?";
+}
+
+DuelMethod parse_duel_method(std::string_view t) {
+    for (auto m : {DuelMethod::automatic, DuelMethod::pairs, DuelMethod::zone, DuelMethod::series,
+                   DuelMethod::product})
+        if (t == to_string(m)) return m;
+    throw InputError(fmt::format("method '{}': expected auto, pairs, zone, series or product", t));
+}
+
+namespace {
+
+// Accumulates one ordered race: simultaneous, or A moving first each round.
+struct Tally {
+    long double win = 0, loss = 0, tie = 0, neither = 0, rounds = 0;  // rounds: E[R 1{R<inf}]
+    long double bound = 0;
+    bool target_met = true;
+    bool proven = true;
+    std::string method;
+};
+
+std::uint64_t full_pairs_work(const Chain& a, const Chain& b) {
+    const auto n = static_cast<std::uint64_t>(a.length);
+    return n * n * static_cast<std::uint64_t>(a.max_move + b.max_move + 2);
+}
+
+void add_round(Tally& r, bool a_first, int t, long double fa, long double fb, long double /*sa_prev*/,
+               long double sb_prev, long double sa, long double sb) {
+    long double w, l, ti = 0;
+    if (a_first) {
+        w = fa * sb_prev;  // A lands while B had not finished before this round
+        l = fb * sa;
+    } else {
+        w = fa * sb;
+        l = fb * sa;
+        ti = fa * fb;
+    }
+    r.win += w;
+    r.loss += l;
+    r.tie += ti;
+    r.rounds += static_cast<long double>(t) * (w + l + ti);
+}
+
+Tally full_pairs(const Chain& a, const Chain& b, bool a_first) {
+    PairTable pt = pair_programme(a, b, 0, 0, a_first);
+    const PairValue& v = pt.at(0, 0);
+    Tally r;
+    r.win = v.win;
+    r.loss = v.loss;
+    r.tie = v.tie;
+    r.rounds = v.rounds;
+    r.bound = pt.relative_rounding;
+    r.neither = std::max(0.0L, 1.0L - r.win - r.loss - r.tie);
+    r.bound += gamma_ld(4);
+    r.method = "pairs";
+    return r;
+}
+
+// Series over the open part of the board until both pieces are in their end
+// zones (but for `target` mass), then the pair programme on the zones.
+std::optional<Tally> zone_method(const Chain& a, const Chain& b, bool a_first, long double target,
+                                 std::uint64_t budget) {
+    const int n = a.length;
+    const int za = std::max(0, n - (2 * a.max_move + 2));
+    const int zb = std::max(0, n - (2 * b.max_move + 2));
+    Series sa(a, 0, true), sb(b, 0, true);
+    Tally r;
+    long double pa = 1, pb = 1;
+    while (true) {
+        long double outside = sa.alive_below(za) + sb.alive_below(zb);
+        if (outside < target) {
+            r.bound = outside;
+            break;
+        }
+        if (sa.work() + sb.work() > budget) return std::nullopt;
+        long double fa = sa.step(), fb = sb.step();
+        add_round(r, a_first, sa.turn(), fa, fb, pa, pb, sa.survival(), sb.survival());
+        pa = sa.survival();
+        pb = sb.survival();
+    }
+    PairTable pt = pair_programme(a, b, za, zb, a_first);
+    const auto& va = sa.mass();
+    const auto& vb = sb.mass();
+    const long double t0 = static_cast<long double>(sa.turn());
+    long double cw = 0, cl = 0, ct = 0, ce = 0;
+    for (int i = std::max(za, sa.low()); i <= sa.high(); ++i) {
+        if (va[i] == 0) continue;
+        long double w = 0, l = 0, ti = 0, e = 0;
+        for (int j = std::max(zb, sb.low()); j <= sb.high(); ++j) {
+            if (vb[j] == 0) continue;
+            const PairValue& c = pt.at(i, j);
+            w += vb[j] * c.win;
+            l += vb[j] * c.loss;
+            ti += vb[j] * c.tie;
+            e += vb[j] * (c.rounds + t0 * (c.win + c.loss + c.tie));
+        }
+        cw += va[i] * w;
+        cl += va[i] * l;
+        ct += va[i] * ti;
+        ce += va[i] * e;
+    }
+    r.win += cw;
+    r.loss += cl;
+    r.tie += ct;
+    r.rounds += ce;
+    r.neither = std::max(0.0L, 1.0L - r.win - r.loss - r.tie);
+    const int support = (sa.high() - sa.low() + 1) + (sb.high() - sb.low() + 1);
+    r.bound += sa.rounding_bound() + sb.rounding_bound() + pt.relative_rounding +
+               gamma_ld(support + 2 * sa.turn() + 8);
+    r.method = "zone";
+    return r;
+}
+
+// Plain per-turn series on any board; stops at the target or the work limit.
+Tally series_method(const Chain& a, const Chain& b, bool a_first, long double target,
+                    std::uint64_t work_limit) {
+    Series sa(a), sb(b);
+    Tally r;
+    long double pa = 1, pb = 1;
+    while (sa.alive() + sb.alive() >= target) {
+        if (sa.work() + sb.work() > work_limit) {
+            r.target_met = false;
+            break;
+        }
+        long double fa = sa.step(), fb = sb.step();
+        add_round(r, a_first, sa.turn(), fa, fb, pa, pb, sa.survival(), sb.survival());
+        pa = sa.survival();
+        pb = sb.survival();
+    }
+    // Every unresolved outcome needs a piece that is still alive.
+    r.neither = sa.stuck() * sb.stuck();
+    r.bound = sa.alive() + sb.alive() + sa.rounding_bound() + sb.rounding_bound() +
+              gamma_ld(2 * sa.turn() + 8);
+    r.method = "series";
+    return r;
+}
+
+// Direct sparse LU of the product chain over pairs of squares. Independent of
+// the other methods; its bound is a residual estimate, not a proof.
+Tally product_method(const Chain& A, const Chain& B, bool a_first) {
+    const int n = A.length;
+    const std::uint64_t states = static_cast<std::uint64_t>(n) * n;
+    const std::uint64_t nnz = states * static_cast<std::uint64_t>(A.max_move + 1) * (B.max_move + 1);
+    limits::check_memory(nnz * 64 + states * 256, "the product chain of this duel");
+    std::vector<int> idx(states, -1);
+    int count = 0;
+    auto both_stuck = [&](int a, int b) { return A.stuck[a] && B.stuck[b]; };
+    for (int a = 0; a < n; ++a)
+        for (int b = 0; b < n; ++b)
+            if (!both_stuck(a, b)) idx[static_cast<std::size_t>(a) * n + b] = count++;
+    Tally r;
+    r.method = "product";
+    r.proven = false;
+    if (count == 0 || idx[0] < 0) {
+        r.neither = 1;
+        return r;
+    }
+    std::vector<Eigen::Triplet<double>> trip;
+    Eigen::MatrixXd rhs = Eigen::MatrixXd::Zero(count, 3);
+    for (int a = 0; a < n; ++a) {
+        for (int b = 0; b < n; ++b) {
+            int i = idx[static_cast<std::size_t>(a) * n + b];
+            if (i < 0) continue;
+            double diag = 1.0;
+            for (auto ka = A.row_start[a]; ka < A.row_start[a + 1]; ++ka) {
+                int da = A.dest[ka];
+                if (da == n) continue;
+                for (auto kb = B.row_start[b]; kb < B.row_start[b + 1]; ++kb) {
+                    int db = B.dest[kb];
+                    if (db == n) continue;
+                    int j = idx[static_cast<std::size_t>(da) * n + db];
+                    if (j < 0) continue;
+                    double p = static_cast<double>(A.prob[ka] * B.prob[kb]);
+                    if (j == i)
+                        diag -= p;
+                    else
+                        trip.emplace_back(i, j, -p);
+                }
+            }
+            trip.emplace_back(i, i, diag);
+            const double ra = static_cast<double>(A.finish[a]), rb = static_cast<double>(B.finish[b]);
+            if (a_first) {
+                rhs(i, 0) = ra;
+                rhs(i, 1) = (1 - ra) * rb;
+            } else {
+                rhs(i, 0) = ra * (1 - rb);
+                rhs(i, 1) = (1 - ra) * rb;
+                rhs(i, 2) = ra * rb;
+            }
+        }
+    }
+    Eigen::SparseMatrix<double> m(count, count);
+    m.setFromTriplets(trip.begin(), trip.end());
+    m.makeCompressed();
+    Eigen::SparseLU<Eigen::SparseMatrix<double>> lu;
+    lu.compute(m);
+    if (lu.info() != Eigen::Success) throw InternalError("sparse LU of the product chain failed");
+    Eigen::MatrixXd x = lu.solve(rhs);
+    Eigen::VectorXd f = x.rowwise().sum();
+    Eigen::VectorXd e = lu.solve(f);
+    Eigen::VectorXd tau = lu.solve(Eigen::VectorXd::Ones(count));
+    double resid = (m * x - rhs).lpNorm<Eigen::Infinity>();
+    r.win = x(idx[0], 0);
+    r.loss = x(idx[0], 1);
+    r.tie = x(idx[0], 2);
+    r.rounds = e(idx[0]);
+    r.neither = std::max(0.0L, 1.0L - r.win - r.loss - r.tie);
+    // |error| <= (I - M)^{-1} |residual| <= residual * max expected rounds.
+    r.bound = static_cast<long double>((resid + 1e-16) * std::max(1.0, tau.lpNorm<Eigen::Infinity>()) * 4);
+    return r;
+}
+
+Tally solve_ordered(const Chain& a, const Chain& b, bool a_first, const DuelSettings& s) {
+    switch (s.method) {
+        case DuelMethod::pairs:
+            if (!a.forward_only) throw InputError("method pairs needs a board where pieces never move backward");
+            return full_pairs(a, b, a_first);
+        case DuelMethod::zone: {
+            if (!a.forward_only) throw InputError("method zone needs a board where pieces never move backward");
+            auto r = zone_method(a, b, a_first, s.target, s.work_limit);
+            if (!r) throw LimitError("method zone: the series did not reach the end zones within the work limit");
+            return *r;
+        }
+        case DuelMethod::series: return series_method(a, b, a_first, s.target, s.work_limit);
+        case DuelMethod::product: return product_method(a, b, a_first);
+        case DuelMethod::automatic: break;
+    }
+    if (a.forward_only) {
+        const std::uint64_t full = full_pairs_work(a, b);
+        // Small boards: the whole pair programme is cheap and needs no series.
+        if (full <= 2'000'000) return full_pairs(a, b, a_first);
+        // Otherwise try the series + end zone, giving up once it has cost a
+        // quarter of the full programme (slow movers: moves of 0, tiny dice).
+        if (auto r = zone_method(a, b, a_first, s.target, full / 4)) return *r;
+        return full_pairs(a, b, a_first);
+    }
+    return series_method(a, b, a_first, s.target, s.work_limit);
+}
+
+// Median of R = min(T_A, T_B): the smallest t with P(R <= t) >= 1/2.
+void median_rounds(const Chain& a, const Chain& b, DuelResult& out, std::uint64_t work_limit) {
+    if (out.p_a_wins + out.p_b_wins + out.p_tie < 0.5L) {
+        out.median_rounds.reset();
+        return;
+    }
+    Series sa(a), sb(b);
+    while (true) {
+        sa.step();
+        sb.step();
+        if (1.0L - sa.survival() * sb.survival() >= 0.5L) {
+            out.median_rounds = sa.turn();
+            return;
+        }
+        if ((sa.alive() == 0 && sb.alive() == 0) || sa.work() + sb.work() > work_limit) {
+            out.median_resolved = sa.alive() == 0 && sb.alive() == 0;
+            return;
+        }
+    }
+}
+
+}  // namespace
+
+DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings& s) {
+    if (a.length != b.length) throw InternalError("duel: the two chains are on different boards");
+    DuelResult out;
+    auto fill = [&](const Tally& t, bool swap) {
+        out.p_a_wins = swap ? t.loss : t.win;
+        out.p_b_wins = swap ? t.win : t.loss;
+        out.p_tie = t.tie;
+        out.p_neither = t.neither;
+        out.bound = t.bound;
+        out.bound_proven = t.proven;
+        out.target_met = t.target_met;
+        out.method = t.method;
+        long double f = t.win + t.loss + t.tie;
+        out.mean_rounds = f > 0 ? static_cast<double>(t.rounds / f) : std::nan("");
+    };
+    switch (order) {
+        case Order::simultaneous: fill(solve_ordered(a, b, false, s), false); break;
+        case Order::a_first: fill(solve_ordered(a, b, true, s), false); break;
+        case Order::b_first: fill(solve_ordered(b, a, true, s), true); break;
+        case Order::coin: {
+            Tally x = solve_ordered(a, b, true, s);
+            Tally y = solve_ordered(b, a, true, s);
+            Tally m;
+            m.win = (x.win + y.loss) / 2;
+            m.loss = (x.loss + y.win) / 2;
+            m.tie = 0;
+            m.neither = (x.neither + y.neither) / 2;
+            m.rounds = (x.rounds + y.rounds) / 2;
+            m.bound = std::max(x.bound, y.bound) + gamma_ld(2);
+            m.proven = x.proven && y.proven;
+            m.target_met = x.target_met && y.target_met;
+            m.method = x.method == y.method ? x.method : x.method + "+" + y.method;
+            fill(m, false);
+            break;
+        }
+    }
+    // Self-check: the four outcomes partition the probability space.
+    long double total = out.p_a_wins + out.p_b_wins + out.p_tie + out.p_neither;
+    if (std::fabs(static_cast<double>(total - 1.0L)) > static_cast<double>(4 * out.bound) + 1e-9)
+        throw InternalError(fmt::format("duel outcomes sum to {:.17g}, not 1 within the bound {:.3g}",
+                                        static_cast<double>(total), static_cast<double>(out.bound)));
+    if (s.want_median) median_rounds(a, b, out, s.work_limit / 4);
+    return out;
+}
+
+}  // namespace overshoot
