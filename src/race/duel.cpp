@@ -5,7 +5,10 @@
 #include <Eigen/Sparse>
 #include <Eigen/SparseLU>
 #include <algorithm>
+#include <atomic>
 #include <cmath>
+#include <mutex>
+#include <thread>
 
 #include "chain/series.hpp"
 #include "core/error.hpp"
@@ -326,6 +329,57 @@ DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings&
         throw InternalError(fmt::format("duel outcomes sum to {:.17g}, not 1 within the bound {:.3g}",
                                         static_cast<double>(total), static_cast<double>(out.bound)));
     if (s.want_median) median_rounds(a, b, out, s.work_limit / 4);
+    return out;
+}
+
+}  // namespace overshoot
+
+namespace overshoot {
+
+namespace {
+DuelResult swapped(const DuelResult& r) {
+    DuelResult s = r;
+    std::swap(s.p_a_wins, s.p_b_wins);
+    return s;
+}
+}  // namespace
+
+std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order order, const DuelSettings& s,
+                                    int threads) {
+    const std::size_t n = chains.size();
+    std::vector<DuelResult> out(n * n);
+    std::vector<std::pair<std::size_t, std::size_t>> jobs;
+    for (std::size_t i = 0; i < n; ++i)
+        for (std::size_t j = i; j < n; ++j) jobs.emplace_back(i, j);
+    if (threads <= 0) threads = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+    std::atomic<std::size_t> next{0};
+    std::exception_ptr failure;
+    std::mutex failure_mutex;
+    auto work = [&] {
+        try {
+            for (std::size_t k; (k = next.fetch_add(1)) < jobs.size();) {
+                auto [i, j] = jobs[k];
+                // Swapping seats is exact for every order but a-first/b-first,
+                // where the seat matters; compute both there.
+                out[i * n + j] = duel(chains[i], chains[j], order, s);
+                if (i != j) {
+                    if (order == Order::a_first || order == Order::b_first)
+                        out[j * n + i] = duel(chains[j], chains[i], order, s);
+                    else
+                        out[j * n + i] = swapped(out[i * n + j]);
+                }
+            }
+        } catch (...) {
+            std::lock_guard<std::mutex> lock(failure_mutex);
+            if (!failure) failure = std::current_exception();
+            next.store(jobs.size());
+        }
+    };
+    std::vector<std::thread> pool;
+    for (int t = 1; t < threads; ++t) pool.emplace_back(work);
+    work();
+    for (auto& t : pool) t.join();
+    if (failure) std::rethrow_exception(failure);
     return out;
 }
 

@@ -3,6 +3,7 @@
 #include <cstdint>
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "chain/chain.hpp"
 #include "core/board.hpp"
@@ -45,6 +46,12 @@ struct DuelResult {
 
 // Both chains must be built on the same board.
 DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings& settings = {});
+
+// Every ordered pair of options on one board: result[i * n + j] is the duel of
+// chains[i] (as A) against chains[j] (as B), the diagonal included. Uses all
+// cores (threads = 0) and gives the same bytes whatever the thread count.
+std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order order,
+                                    const DuelSettings& settings = {}, int threads = 0);
 
 std::string_view to_string(DuelMethod m);
 DuelMethod parse_duel_method(std::string_view text);
