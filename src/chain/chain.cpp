@@ -1,9 +1,8 @@
 #include "chain/chain.hpp"
 
 #include <algorithm>
-#include <boost/graph/adjacency_list.hpp>
+#include <boost/graph/compressed_sparse_row_graph.hpp>
 #include <boost/graph/breadth_first_search.hpp>
-#include <boost/graph/reverse_graph.hpp>
 
 #include "core/limits.hpp"
 
@@ -30,17 +29,19 @@ int destination(const Board& b, int s, int m) {
 }
 
 void mark_stuck(Chain& c) {
-    using Graph = boost::adjacency_list<boost::vecS, boost::vecS, boost::bidirectionalS>;
+    // The finish reaches, along reversed arcs, exactly the squares that can
+    // still finish; one compressed graph and one breadth-first search.
+    using Graph = boost::compressed_sparse_row_graph<boost::directedS>;
     const int n = c.length;
-    Graph g(static_cast<std::size_t>(n) + 1);
+    std::vector<std::pair<std::size_t, std::size_t>> reversed;
+    reversed.reserve(c.dest.size());
     for (int s = 0; s < n; ++s)
         for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
-            if (c.dest[k] != s) boost::add_edge(static_cast<std::size_t>(s), static_cast<std::size_t>(c.dest[k]), g);
-    // Squares that can reach the finish are those the finish reaches backwards.
-    auto rg = boost::make_reverse_graph(g);
+            if (c.dest[k] != s) reversed.emplace_back(static_cast<std::size_t>(c.dest[k]), static_cast<std::size_t>(s));
+    Graph g(boost::edges_are_unsorted_multi_pass, reversed.begin(), reversed.end(), static_cast<std::size_t>(n) + 1);
     std::vector<boost::default_color_type> color(boost::num_vertices(g), boost::white_color);
-    auto cmap = boost::make_iterator_property_map(color.begin(), boost::get(boost::vertex_index, rg));
-    boost::breadth_first_search(rg, static_cast<std::size_t>(n), boost::color_map(cmap));
+    auto cmap = boost::make_iterator_property_map(color.begin(), boost::get(boost::vertex_index, g));
+    boost::breadth_first_search(g, static_cast<std::size_t>(n), boost::color_map(cmap));
     c.stuck.assign(static_cast<std::size_t>(n), 0);
     for (int s = 0; s < n; ++s) c.stuck[s] = color[s] == boost::white_color ? 1 : 0;
 }
@@ -90,7 +91,11 @@ Chain build_chain(const Board& board, const Option& option) {
         }
     }
     c.prob.resize(c.weight.size());
-    for (std::size_t k = 0; k < c.weight.size(); ++k) c.prob[k] = static_cast<long double>(c.weight[k]) / den;
+    c.prob_d.resize(c.weight.size());
+    for (std::size_t k = 0; k < c.weight.size(); ++k) {
+        c.prob[k] = static_cast<long double>(c.weight[k]) / den;
+        c.prob_d[k] = static_cast<double>(c.prob[k]);
+    }
     c.stay.resize(n);
     c.leave.resize(n);
     c.finish.resize(n);
@@ -105,6 +110,10 @@ Chain build_chain(const Board& board, const Option& option) {
     c.resting.resize(n);
     for (int s = 0; s < n; ++s) c.resting[s] = board.resolve[s] == s ? 1 : 0;
     mark_stuck(c);
+    c.plain.assign(n, 1);
+    for (int s = 0; s < n; ++s)
+        for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
+            if (c.dest[k] == n || c.stuck[c.dest[k]]) c.plain[s] = 0;
     return c;
 }
 

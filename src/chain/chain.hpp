@@ -21,6 +21,7 @@ struct Chain {
     std::vector<int> dest;
     std::vector<std::uint64_t> weight;    // exact, over `denominator`
     std::vector<long double> prob;        // weight / denominator
+    std::vector<double> prob_d;           // the same, rounded to double (fast paths)
 
     // Per square, exact integer weights of the three fates of one turn.
     std::vector<std::uint64_t> stay_weight;    // back on s
@@ -31,6 +32,7 @@ struct Chain {
 
     std::vector<char> stuck;    // 1 when the finish cannot be reached from s
     std::vector<char> resting;  // 0 for jump sources: no piece ever rests there
+    std::vector<char> plain;    // 1 when no destination of the row is the finish or stuck
     int max_in_degree = 0;    // most sources feeding one destination (rounding bound)
 
     int rows() const { return length; }

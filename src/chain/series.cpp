@@ -1,6 +1,8 @@
 #include "chain/series.hpp"
 
+#include <algorithm>
 #include <limits>
+#include <type_traits>
 
 namespace overshoot {
 
@@ -10,7 +12,31 @@ long double gamma_ld(double n) {
     return nu / (1 - nu);
 }
 
-Series::Series(const Chain& c, int start, bool keep_stuck)
+long double gamma_d(double n) {
+    const long double u = std::numeric_limits<double>::epsilon() / 2;
+    long double nu = static_cast<long double>(n) * u;
+    return nu / (1 - nu);
+}
+
+namespace {
+template <class Real>
+long double gamma_of(double n) {
+    if constexpr (std::is_same_v<Real, double>)
+        return gamma_d(n);
+    else
+        return gamma_ld(n);
+}
+template <class Real>
+const Real* probabilities(const Chain& c) {
+    if constexpr (std::is_same_v<Real, double>)
+        return c.prob_d.data();
+    else
+        return c.prob.data();
+}
+}  // namespace
+
+template <class Real>
+BasicSeries<Real>::BasicSeries(const Chain& c, int start, bool keep_stuck)
     : c_(&c), v_(c.length, 0), next_(c.length, 0), keep_stuck_(keep_stuck) {
     lo_ = hi_ = start;
     if (c.stuck[start] && !keep_stuck) {
@@ -21,27 +47,39 @@ Series::Series(const Chain& c, int start, bool keep_stuck)
     }
     // Each destination sums at most max_in_degree products, each product has one
     // rounding, and the probabilities themselves carry one: gamma_{d+2} per turn.
-    gamma_ = gamma_ld(c.max_in_degree + 2);
+    gamma_ = gamma_of<Real>(c.max_in_degree + 3);
+    trim_ = Real(1e-20L);
 }
 
-long double Series::step() {
+template <class Real>
+long double BasicSeries<Real>::step() {
     const Chain& c = *c_;
     const int n = c.length;
+    const Real* prob = probabilities<Real>(c);
     ++t_;
     if (alive_ == 0) return 0;
     int nlo = n, nhi = -1;
-    long double fin = 0, st = 0, processed = 0;
+    Real fin = 0, st = 0, processed = 0;
     for (int s = lo_; s <= hi_; ++s) {
-        long double m = v_[s];
+        const Real m = v_[s];
         if (m == 0) continue;
         v_[s] = 0;
         processed += m;
-        for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k) {
-            int d = c.dest[k];
-            long double x = m * c.prob[k];
+        const auto begin = c.row_start[s], end = c.row_start[s + 1];
+        work_ += static_cast<std::uint64_t>(end - begin);
+        if (c.plain[s]) {
+            // Rows are sorted by destination: the first and last bound the support.
+            for (auto k = begin; k < end; ++k) next_[c.dest[k]] += m * prob[k];
+            if (c.dest[begin] < nlo) nlo = c.dest[begin];
+            if (c.dest[end - 1] > nhi) nhi = c.dest[end - 1];
+            continue;
+        }
+        for (auto k = begin; k < end; ++k) {
+            const int d = c.dest[k];
+            const Real x = m * prob[k];
             if (d == n) {
                 fin += x;
-            } else if (c.stuck[d] && !keep_stuck_) {
+            } else if (!keep_stuck_ && c.stuck[d]) {
                 st += x;  // never finishes: set aside instead of carrying it
             } else {
                 next_[d] += x;
@@ -49,10 +87,25 @@ long double Series::step() {
                 if (d > nhi) nhi = d;
             }
         }
-        work_ += static_cast<std::uint64_t>(c.row_start[s + 1] - c.row_start[s]);
     }
     std::swap(v_, next_);
-    long double alive = 0;
+    // Trim the far edges of the support: their mass (at most trim_ per edge per
+    // turn) is added to the bound, so the bound stays proven while the support
+    // stays as narrow as the distribution really is.
+    Real dropped = 0;
+    if (nhi >= 0) {
+        while (nlo < nhi && dropped + v_[nlo] < trim_) {
+            dropped += v_[nlo];
+            v_[nlo++] = 0;
+        }
+        Real top = 0;
+        while (nhi > nlo && top + v_[nhi] < trim_) {
+            top += v_[nhi];
+            v_[nhi--] = 0;
+        }
+        dropped += top;
+    }
+    Real alive = 0;
     if (nhi >= 0) {
         for (int s = nlo; s <= nhi; ++s) alive += v_[s];
         lo_ = nlo;
@@ -60,18 +113,28 @@ long double Series::step() {
     } else {
         lo_ = hi_ = 0;
     }
+    dropped_ += dropped;
     finished_ += fin;
     stuck_ += st;
     alive_ = alive;
-    // Rounding of this turn's products and sums, plus the three running sums.
-    rounding_ += gamma_ * processed + gamma_ld(hi_ - lo_ + 5) * (finished_ + stuck_ + alive_);
+    // This turn's products and sums, the support sum, the three running totals
+    // and the trimmed mass (first-order bounds, docs/method.md).
+    // Mass errors accumulate (the chain is substochastic, so old errors never
+    // grow); the support sum is recomputed each turn, so its error does not.
+    rounding_ += gamma_ * static_cast<long double>(processed) + gamma_ld(2) * (finished_ + stuck_) +
+                 static_cast<long double>(dropped) * (1 + gamma_of<Real>(4));
+    sum_error_ = std::max(sum_error_, gamma_of<Real>(hi_ - lo_ + 2) * alive_);
     return fin;
 }
 
-long double Series::alive_below(int square) const {
+template <class Real>
+long double BasicSeries<Real>::alive_below(int square) const {
     long double s = 0;
     for (int i = lo_; i <= hi_ && i < square; ++i) s += v_[i];
     return s;
 }
+
+template class BasicSeries<double>;
+template class BasicSeries<long double>;
 
 }  // namespace overshoot

@@ -8,11 +8,14 @@
 
 namespace overshoot {
 
-class Series {
+// Real is the working precision of the per-square masses (double or long
+// double); running totals are kept in long double either way.
+template <class Real>
+class BasicSeries {
 public:
     // With keep_stuck, mass on stuck squares stays on its square (and counts as
     // alive); otherwise it is set aside in stuck(), which is cheaper.
-    explicit Series(const Chain& chain, int start = 0, bool keep_stuck = false);
+    explicit BasicSeries(const Chain& chain, int start = 0, bool keep_stuck = false);
 
     // Advances one turn; returns P(T = t) for the new t.
     long double step();
@@ -24,25 +27,34 @@ public:
     long double survival() const { return alive_ + stuck_; }  // P(T > t)
     // Mass still alive on squares below `square` (outside an end zone).
     long double alive_below(int square) const;
-    // Rigorous bound on the accumulated rounding error of every mass above.
-    long double rounding_bound() const { return rounding_; }
+    // Rigorous bound on the accumulated rounding error of every mass above,
+    // including the tiny edge mass trimmed from the support.
+    long double rounding_bound() const { return rounding_ + sum_error_; }
+    long double dropped() const { return dropped_; }
     // Work done so far (transitions applied), for choosing between methods.
     std::uint64_t work() const { return work_; }
     int low() const { return lo_; }
     int high() const { return hi_; }
-    const std::vector<long double>& mass() const { return v_; }
+    const std::vector<Real>& mass() const { return v_; }
 
 private:
     const Chain* c_;
-    std::vector<long double> v_, next_;
+    std::vector<Real> v_, next_;
     int lo_, hi_;
     int t_ = 0;
-    long double finished_ = 0, stuck_ = 0, alive_ = 1, rounding_ = 0, gamma_;
+    long double finished_ = 0, stuck_ = 0, alive_ = 1, rounding_ = 0, gamma_, gamma_sum_;
     bool keep_stuck_ = false;
+    long double dropped_ = 0, sum_error_ = 0;
+    Real trim_;  // mass below this at an edge of the support is dropped (and bounded)
     std::uint64_t work_ = 0;
 };
 
+using Series = BasicSeries<long double>;
+using FastSeries = BasicSeries<double>;
+
 // gamma_n = n u / (1 - n u) for long double's unit roundoff u (Higham, 2002).
 long double gamma_ld(double n);
+// The same for double.
+long double gamma_d(double n);
 
 }  // namespace overshoot

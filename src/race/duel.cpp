@@ -10,6 +10,7 @@
 #include <mutex>
 #include <thread>
 
+#include "chain/absorption.hpp"
 #include "chain/series.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
@@ -44,7 +45,18 @@ struct Tally {
     bool target_met = true;
     bool proven = true;
     std::string method;
+    std::optional<long long> median;  // rounds to the first finish, when found on the way
+    bool median_done = false;
 };
+
+// Records the first round t with P(R <= t) >= 1/2, R = min(T_A, T_B).
+template <class S>
+void watch_median(Tally& r, const S& sa, const S& sb) {
+    if (!r.median_done && 1.0L - sa.survival() * sb.survival() >= 0.5L) {
+        r.median = sa.turn();
+        r.median_done = true;
+    }
+}
 
 std::uint64_t full_pairs_work(const Chain& a, const Chain& b) {
     const auto n = static_cast<std::uint64_t>(a.length);
@@ -84,13 +96,15 @@ Tally full_pairs(const Chain& a, const Chain& b, bool a_first) {
 }
 
 // Series over the open part of the board until both pieces are in their end
-// zones (but for `target` mass), then the pair programme on the zones.
+// zones (but for `target` mass), then the pair programme on the zones. Mass on
+// stuck squares is carried as a scalar: a stuck piece's square does not matter.
+template <class S>
 std::optional<Tally> zone_method(const Chain& a, const Chain& b, bool a_first, long double target,
                                  std::uint64_t budget) {
     const int n = a.length;
     const int za = std::max(0, n - (2 * a.max_move + 2));
     const int zb = std::max(0, n - (2 * b.max_move + 2));
-    Series sa(a, 0, true), sb(b, 0, true);
+    S sa(a), sb(b);
     Tally r;
     long double pa = 1, pb = 1;
     while (true) {
@@ -102,18 +116,21 @@ std::optional<Tally> zone_method(const Chain& a, const Chain& b, bool a_first, l
         if (sa.work() + sb.work() > budget) return std::nullopt;
         long double fa = sa.step(), fb = sb.step();
         add_round(r, a_first, sa.turn(), fa, fb, pa, pb, sa.survival(), sb.survival());
+        watch_median(r, sa, sb);
         pa = sa.survival();
         pb = sb.survival();
     }
     PairTable pt = pair_programme(a, b, za, zb, a_first);
+    const Absorption ha = forward_absorption(a), hb = forward_absorption(b);
     const auto& va = sa.mass();
     const auto& vb = sb.mass();
     const long double t0 = static_cast<long double>(sa.turn());
     long double cw = 0, cl = 0, ct = 0, ce = 0;
-    for (int i = std::max(za, sa.low()); i <= sa.high(); ++i) {
+    const int alo = std::max(za, sa.low()), blo = std::max(zb, sb.low());
+    for (int i = alo; i <= sa.high(); ++i) {
         if (va[i] == 0) continue;
         long double w = 0, l = 0, ti = 0, e = 0;
-        for (int j = std::max(zb, sb.low()); j <= sb.high(); ++j) {
+        for (int j = blo; j <= sb.high(); ++j) {
             if (vb[j] == 0) continue;
             const PairValue& c = pt.at(i, j);
             w += vb[j] * c.win;
@@ -126,22 +143,47 @@ std::optional<Tally> zone_method(const Chain& a, const Chain& b, bool a_first, l
         ct += va[i] * ti;
         ce += va[i] * e;
     }
+    // One piece stuck for good: the other wins exactly when it finishes.
+    long double fin_a = 0, fin_b = 0, time_a = 0, time_b = 0;
+    for (int i = alo; i <= sa.high(); ++i) {
+        fin_a += va[i] * ha.h[i];
+        time_a += va[i] * (ha.g[i] + t0 * ha.h[i]);
+    }
+    for (int j = blo; j <= sb.high(); ++j) {
+        fin_b += vb[j] * hb.h[j];
+        time_b += vb[j] * (hb.g[j] + t0 * hb.h[j]);
+    }
+    cw += sb.stuck() * fin_a;
+    cl += sa.stuck() * fin_b;
+    ce += sb.stuck() * time_a + sa.stuck() * time_b;
     r.win += cw;
     r.loss += cl;
     r.tie += ct;
     r.rounds += ce;
     r.neither = std::max(0.0L, 1.0L - r.win - r.loss - r.tie);
     const int support = (sa.high() - sa.low() + 1) + (sb.high() - sb.low() + 1);
+    // The absorption pass has the same depth structure as the pair programme.
     r.bound += sa.rounding_bound() + sb.rounding_bound() + pt.relative_rounding +
+               static_cast<long double>(2 * n + 2) * gamma_ld(std::max(a.max_move, b.max_move) + 4) +
                gamma_ld(support + 2 * sa.turn() + 8);
     r.method = "zone";
+    // The median of R may lie past the prefix: keep stepping the two series.
+    if (!r.median_done && r.win + r.loss + r.tie >= 0.5L) {
+        while (!r.median_done && (sa.alive() > 0 || sb.alive() > 0) && sa.work() + sb.work() < 4 * budget + 100000000) {
+            sa.step();
+            sb.step();
+            watch_median(r, sa, sb);
+        }
+    }
+    if (r.win + r.loss + r.tie < 0.5L) r.median_done = true;  // null median, resolved
     return r;
 }
 
 // Plain per-turn series on any board; stops at the target or the work limit.
+template <class S>
 Tally series_method(const Chain& a, const Chain& b, bool a_first, long double target,
                     std::uint64_t work_limit) {
-    Series sa(a), sb(b);
+    S sa(a), sb(b);
     Tally r;
     long double pa = 1, pb = 1;
     while (sa.alive() + sb.alive() >= target) {
@@ -151,9 +193,11 @@ Tally series_method(const Chain& a, const Chain& b, bool a_first, long double ta
         }
         long double fa = sa.step(), fb = sb.step();
         add_round(r, a_first, sa.turn(), fa, fb, pa, pb, sa.survival(), sb.survival());
+        watch_median(r, sa, sb);
         pa = sa.survival();
         pb = sb.survival();
     }
+    if (sa.alive() + sb.alive() == 0 || r.win + r.loss + r.tie + r.neither < 0.5L) r.median_done = true;
     // Every unresolved outcome needs a piece that is still alive.
     r.neither = sa.stuck() * sb.stuck();
     r.bound = sa.alive() + sb.alive() + sa.rounding_bound() + sb.rounding_bound() +
@@ -237,6 +281,20 @@ Tally product_method(const Chain& A, const Chain& B, bool a_first) {
     return r;
 }
 
+// Per-probability bound below which the fast double-precision pass is kept.
+constexpr long double precise_enough = 1e-13L;
+
+long double predicted_double_bound(const Chain& a, const Chain& b) {
+    auto turns = [](const Chain& c) {
+        long double mean = 0;
+        for (int s = 0; s < 1; ++s)
+            for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
+                mean += c.prob[k] * static_cast<long double>(c.dest[k] - s);
+        return mean > 0 ? 1.5L * c.length / mean + 50 : 1e30L;
+    };
+    return turns(a) * gamma_d(a.max_in_degree + 3) + turns(b) * gamma_d(b.max_in_degree + 3);
+}
+
 Tally solve_ordered(const Chain& a, const Chain& b, bool a_first, const DuelSettings& s) {
     switch (s.method) {
         case DuelMethod::pairs:
@@ -244,11 +302,11 @@ Tally solve_ordered(const Chain& a, const Chain& b, bool a_first, const DuelSett
             return full_pairs(a, b, a_first);
         case DuelMethod::zone: {
             if (!a.forward_only) throw InputError("method zone needs a board where pieces never move backward");
-            auto r = zone_method(a, b, a_first, s.target, s.work_limit);
+            auto r = zone_method<Series>(a, b, a_first, s.target, s.work_limit);
             if (!r) throw LimitError("method zone: the series did not reach the end zones within the work limit");
             return *r;
         }
-        case DuelMethod::series: return series_method(a, b, a_first, s.target, s.work_limit);
+        case DuelMethod::series: return series_method<Series>(a, b, a_first, s.target, s.work_limit);
         case DuelMethod::product: return product_method(a, b, a_first);
         case DuelMethod::automatic: break;
     }
@@ -258,19 +316,30 @@ Tally solve_ordered(const Chain& a, const Chain& b, bool a_first, const DuelSett
         if (full <= 2'000'000) return full_pairs(a, b, a_first);
         // Otherwise try the series + end zone, giving up once it has cost a
         // quarter of the full programme (slow movers: moves of 0, tiny dice).
-        if (auto r = zone_method(a, b, a_first, s.target, full / 4)) return *r;
+        // Double precision when its predicted rounding bound (turns to cross
+        // the board times gamma per turn) stays below the target; long double
+        // otherwise, or when the double run's proven bound turns out too wide.
+        if (predicted_double_bound(a, b) <= precise_enough) {
+            if (auto r = zone_method<FastSeries>(a, b, a_first, s.target, full / 4)) {
+                if (r->bound <= precise_enough) return *r;
+            } else {
+                return full_pairs(a, b, a_first);
+            }
+        }
+        if (auto q = zone_method<Series>(a, b, a_first, s.target, full / 4)) return *q;
         return full_pairs(a, b, a_first);
     }
-    return series_method(a, b, a_first, s.target, s.work_limit);
+    Tally r = series_method<FastSeries>(a, b, a_first, s.target, s.work_limit);
+    if (r.bound <= precise_enough || !r.target_met) return r;
+    return series_method<Series>(a, b, a_first, s.target, s.work_limit);
 }
 
 // Median of R = min(T_A, T_B): the smallest t with P(R <= t) >= 1/2.
 void median_rounds(const Chain& a, const Chain& b, DuelResult& out, std::uint64_t work_limit) {
-    if (out.p_a_wins + out.p_b_wins + out.p_tie < 0.5L) {
-        out.median_rounds.reset();
-        return;
-    }
-    Series sa(a), sb(b);
+    out.median_resolved = true;
+    out.median_rounds.reset();
+    if (out.p_a_wins + out.p_b_wins + out.p_tie < 0.5L) return;
+    FastSeries sa(a), sb(b);
     while (true) {
         sa.step();
         sb.step();
@@ -299,6 +368,8 @@ DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings&
         out.bound_proven = t.proven;
         out.target_met = t.target_met;
         out.method = t.method;
+        out.median_rounds = t.median;
+        out.median_resolved = t.median_done;
         long double f = t.win + t.loss + t.tie;
         out.mean_rounds = f > 0 ? static_cast<double>(t.rounds / f) : std::nan("");
     };
@@ -319,6 +390,8 @@ DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings&
             m.proven = x.proven && y.proven;
             m.target_met = x.target_met && y.target_met;
             m.method = x.method == y.method ? x.method : x.method + "+" + y.method;
+            m.median = x.median;  // R = min(T_A, T_B) does not depend on the seats
+            m.median_done = x.median_done;
             fill(m, false);
             break;
         }
@@ -328,7 +401,7 @@ DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings&
     if (std::fabs(static_cast<double>(total - 1.0L)) > static_cast<double>(4 * out.bound) + 1e-9)
         throw InternalError(fmt::format("duel outcomes sum to {:.17g}, not 1 within the bound {:.3g}",
                                         static_cast<double>(total), static_cast<double>(out.bound)));
-    if (s.want_median) median_rounds(a, b, out, s.work_limit / 4);
+    if (s.want_median && !out.median_resolved) median_rounds(a, b, out, s.work_limit / 4);
     return out;
 }
 

@@ -1,0 +1,554 @@
+#include "race/exact.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <array>
+#include <atomic>
+#include <cmath>
+#include <map>
+#include <memory>
+#include <mutex>
+#include <thread>
+
+#include "core/error.hpp"
+#include "core/limits.hpp"
+
+namespace overshoot {
+
+namespace {
+
+using u64 = std::uint64_t;
+__extension__ typedef unsigned __int128 u128;
+
+mpz_class to_mpz(u128 v) {
+    mpz_class hi(static_cast<unsigned long>(static_cast<u64>(v >> 64)));
+    hi <<= 64;
+    hi += mpz_class(static_cast<unsigned long>(static_cast<u64>(v)));
+    return hi;
+}
+
+// Cap on the bits of the fixed product C of rare self-loop denominators: past
+// it every number of the programme would be dominated by C.
+constexpr double max_rare_bits = 1 << 20;
+constexpr std::size_t max_tracked = 8;
+constexpr u64 tracked_min_count = 16;
+
+// ---------------------------------------------------------------------------
+// The exact pair programme (forward-only boards).
+//
+// With integer weights the programme of race/pairs.cpp reads
+//   Y'(a,b) = sum_e wB(b->e) F(a,e)            [+ wfB(b) in the loss part]
+//   G'(a,b) = wsB(b) F(a,b) + Y'(a,b)           (DB times G)
+//   F(a,b)  = (sum_d wA(a->d) G'(d,b) + wsA(a) Y'(a,b)) / q(a,b),
+//   q(a,b)  = DA DB - wsA(a) wsB(b),
+// with G'(N,b) = DB H(b). Every value is stored as an integer numerator over
+//   C * prod_j basis_j^t_j(cell),
+// where basis_j are the frequent values of q (DA DB first of all), t_j is the
+// cell's own exponent vector (the componentwise max over what it depends on,
+// plus one at q's index) and C is the product of q over every cell whose q is
+// rare. Dividing by a rare q is then exact (docs/exact.md has the proof), and
+// only the final value is reduced.
+class ExactPairs {
+public:
+    ExactPairs(const Chain& a, const Chain& b, bool a_first) : A_(a), B_(b), a_first_(a_first) {
+        n_ = a.length;
+        comps_ = a_first ? 2 : 3;
+        choose_basis();
+    }
+
+    // Win, loss and tie of the race from (0, 0), reduced.
+    std::array<mpq_class, 3> run();
+
+private:
+    const Chain& A_;
+    const Chain& B_;
+    bool a_first_;
+    int n_ = 0;
+    int comps_ = 3;
+    std::size_t k_ = 0;  // tracked basis size
+    std::vector<u128> basis_;
+    std::vector<mpz_class> basis_z_;
+    std::vector<std::vector<mpz_class>> pow_;  // pow_[j][e] = basis_j^e, grown on demand
+    mpz_class c_ = 1;
+    std::vector<mpz_class> const_cache_;  // k_ == 1: C * basis_0^t
+    // Per square: index of its stay weight among the distinct ones; per pair
+    // of indices: tracked index (>= 0), -1 rare, -2 zero (both never move).
+    std::vector<int> ia_, ib_;
+    int nb_ = 0;
+    std::vector<int> qkind_;
+    std::vector<u128> qvalue_;
+
+    struct Row {
+        std::vector<mpz_class> num;
+        std::vector<std::int32_t> ex;
+    };
+
+    u128 q_of(int a, int b) const {
+        return static_cast<u128>(A_.denominator) * B_.denominator -
+               static_cast<u128>(A_.stay_weight[a]) * B_.stay_weight[b];
+    }
+
+    void choose_basis() {
+        // Distinct stay weights over squares a piece can rest on.
+        auto index = [](const Chain& c, std::vector<int>& idx, std::vector<u64>& vals, std::vector<u64>& cnt) {
+            std::map<u64, int> seen;
+            idx.assign(c.length, -1);
+            for (int s = 0; s < c.length; ++s) {
+                if (!c.resting[s]) continue;
+                auto [it, fresh] = seen.emplace(c.stay_weight[s], static_cast<int>(vals.size()));
+                if (fresh) {
+                    vals.push_back(c.stay_weight[s]);
+                    cnt.push_back(0);
+                }
+                idx[s] = it->second;
+                ++cnt[it->second];
+            }
+        };
+        std::vector<u64> va, vb, ca, cb;
+        index(A_, ia_, va, ca);
+        index(B_, ib_, vb, cb);
+        nb_ = static_cast<int>(vb.size());
+        const u128 full = static_cast<u128>(A_.denominator) * B_.denominator;
+        std::map<u128, u64> count;
+        for (std::size_t i = 0; i < va.size(); ++i)
+            for (std::size_t j = 0; j < vb.size(); ++j) {
+                u128 q = full - static_cast<u128>(va[i]) * vb[j];
+                if (q != 0) count[q] += ca[i] * cb[j];
+            }
+        std::vector<std::pair<u64, u128>> order;  // (count, value)
+        for (auto& [q, c] : count) order.emplace_back(c, q);
+        std::sort(order.begin(), order.end(), [](const auto& x, const auto& y) {
+            return x.first != y.first ? x.first > y.first : x.second < y.second;
+        });
+        for (auto& [c, q] : order)
+            if (c >= tracked_min_count && basis_.size() < max_tracked) basis_.push_back(q);
+        k_ = std::max<std::size_t>(basis_.size(), 1);
+        if (basis_.empty()) basis_.push_back(full);  // keeps k_ >= 1; exponents stay 0
+        for (u128 q : basis_) basis_z_.push_back(to_mpz(q));
+        pow_.assign(k_, {mpz_class(1)});
+        double rare_bits = 0;
+        qkind_.assign(va.size() * vb.size(), -1);
+        qvalue_.assign(va.size() * vb.size(), 0);
+        for (std::size_t i = 0; i < va.size(); ++i)
+            for (std::size_t j = 0; j < vb.size(); ++j) {
+                u128 q = full - static_cast<u128>(va[i]) * vb[j];
+                std::size_t at = i * vb.size() + j;
+                qvalue_[at] = q;
+                if (q == 0) {
+                    qkind_[at] = -2;
+                    continue;
+                }
+                auto it = std::find(basis_.begin(), basis_.end(), q);
+                if (it != basis_.end()) {
+                    qkind_[at] = static_cast<int>(it - basis_.begin());
+                    continue;
+                }
+                rare_bits += static_cast<double>(ca[i] * cb[j]) * std::log2(static_cast<double>(q));
+            }
+        if (rare_bits > max_rare_bits)
+            throw LimitError(fmt::format(
+                "exact mode: the self-loops of this duel have too many distinct denominators (their product "
+                "would have {:.0f} bits); omit --exact to get probabilities with a proven error bound",
+                rare_bits));
+        for (std::size_t i = 0; i < va.size(); ++i)
+            for (std::size_t j = 0; j < vb.size(); ++j) {
+                std::size_t at = i * vb.size() + j;
+                if (qkind_[at] == -1) {
+                    mpz_class q = to_mpz(qvalue_[at]);
+                    mpz_class p;
+                    mpz_pow_ui(p.get_mpz_t(), q.get_mpz_t(), ca[i] * cb[j]);
+                    c_ *= p;
+                }
+            }
+    }
+
+    const mpz_class& power(std::size_t j, int e) {
+        auto& v = pow_[j];
+        while (static_cast<int>(v.size()) <= e) v.push_back(v.back() * basis_z_[j]);
+        return v[e];
+    }
+
+    // C * prod basis^t: the scale of a constant entering at exponent t.
+    mpz_class const_scale(const std::int32_t* t) {
+        if (k_ == 1) {
+            while (static_cast<int>(const_cache_.size()) <= t[0])
+                const_cache_.push_back(c_ * power(0, static_cast<int>(const_cache_.size())));
+            return const_cache_[t[0]];
+        }
+        mpz_class s = c_;
+        for (std::size_t j = 0; j < k_; ++j) s *= power(j, t[j]);
+        return s;
+    }
+
+    // acc += w * x * prod basis^(t - tx).
+    void add_scaled(mpz_class& acc, const mpz_class& x, u64 w, const std::int32_t* t, const std::int32_t* tx,
+                    mpz_class& tmp) {
+        u128 f = w;
+        bool fits = true;
+        for (std::size_t j = 0; j < k_ && fits; ++j)
+            for (int e = tx[j]; e < t[j]; ++e) {
+                if (basis_[j] > static_cast<u128>(~u64{0}) || f > static_cast<u128>(~u64{0}) / basis_[j]) {
+                    fits = false;
+                    break;
+                }
+                f *= basis_[j];
+            }
+        if (fits) {
+            mpz_addmul_ui(acc.get_mpz_t(), x.get_mpz_t(), static_cast<unsigned long>(static_cast<u64>(f)));
+            return;
+        }
+        tmp = x;
+        for (std::size_t j = 0; j < k_; ++j)
+            if (t[j] > tx[j]) tmp *= power(j, t[j] - tx[j]);
+        mpz_addmul_ui(acc.get_mpz_t(), tmp.get_mpz_t(), static_cast<unsigned long>(w));
+    }
+
+    void add_const(mpz_class& acc, u64 w1, u64 w2, const std::int32_t* t, mpz_class& tmp) {
+        if (w1 == 0 || w2 == 0) return;
+        tmp = const_scale(t);
+        tmp *= static_cast<unsigned long>(w1);
+        mpz_addmul_ui(acc.get_mpz_t(), tmp.get_mpz_t(), static_cast<unsigned long>(w2));
+    }
+};
+
+std::array<mpq_class, 3> ExactPairs::run() {
+    const int n = n_;
+    const std::size_t k = k_;
+    const int cm = comps_;
+    constexpr int WIN = 0, LOSS = 1, TIE = 2;
+    // Rows of G' needed by a lower row; freed once the lowest user is done.
+    std::vector<int> lowest_user(n, -1);
+    for (int a = 0; a < n; ++a) {
+        if (!A_.resting[a]) continue;
+        for (auto e = A_.row_start[a]; e < A_.row_start[a + 1]; ++e) {
+            int d = A_.dest[e];
+            if (d != a && d < n && lowest_user[d] < 0) lowest_user[d] = a;
+        }
+    }
+    std::vector<std::vector<int>> free_after(n);
+    for (int d = 0; d < n; ++d)
+        if (lowest_user[d] >= 0) free_after[lowest_user[d]].push_back(d);
+    std::vector<std::unique_ptr<Row>> grow(n);
+    std::vector<std::unique_ptr<Row>> pool;
+    auto fresh_row = [&]() {
+        std::unique_ptr<Row> r;
+        if (!pool.empty()) {
+            r = std::move(pool.back());
+            pool.pop_back();
+        } else {
+            r = std::make_unique<Row>();
+            r->num.resize(static_cast<std::size_t>(n) * cm);
+            r->ex.resize(static_cast<std::size_t>(n) * k);
+        }
+        return r;
+    };
+    Row frow;
+    frow.num.resize(static_cast<std::size_t>(n) * cm);
+    frow.ex.assign(static_cast<std::size_t>(n) * k, 0);
+    std::vector<std::int32_t> ty(k), t(k), zero(k, 0);
+    std::vector<mpz_class> y(cm), s(cm);
+    mpz_class tmp, tmp2;
+    const u64 db = B_.denominator;
+
+    for (int a = n - 1; a >= 0; --a) {
+        if (!A_.resting[a]) continue;
+        Row* g = nullptr;
+        if (lowest_user[a] >= 0) {
+            grow[a] = fresh_row();
+            g = grow[a].get();
+        }
+        const u64 wsa = A_.stay_weight[a];
+        for (int b = n - 1; b >= 0; --b) {
+            std::int32_t* fex = &frow.ex[static_cast<std::size_t>(b) * k];
+            mpz_class* fnum = &frow.num[static_cast<std::size_t>(b) * cm];
+            if (!B_.resting[b]) {
+                for (int c = 0; c < cm; ++c) fnum[c] = 0;
+                std::fill(fex, fex + k, 0);
+                continue;
+            }
+            const u64 wsb = B_.stay_weight[b];
+            const int kind = qkind_[static_cast<std::size_t>(ia_[a]) * nb_ + ib_[b]];
+            if (kind == -2) {  // neither piece can ever move: nobody finishes
+                for (int c = 0; c < cm; ++c) fnum[c] = 0;
+                std::fill(fex, fex + k, 0);
+                if (g) {
+                    for (int c = 0; c < cm; ++c) g->num[static_cast<std::size_t>(b) * cm + c] = 0;
+                    std::fill(&g->ex[static_cast<std::size_t>(b) * k], &g->ex[static_cast<std::size_t>(b) * k] + k, 0);
+                }
+                continue;
+            }
+            // Exponents: Y' from this row, then the rows A moves to.
+            std::fill(ty.begin(), ty.end(), 0);
+            for (auto e = B_.row_start[b]; e < B_.row_start[b + 1]; ++e) {
+                int d = B_.dest[e];
+                if (d == b || d == n) continue;
+                const std::int32_t* x = &frow.ex[static_cast<std::size_t>(d) * k];
+                for (std::size_t j = 0; j < k; ++j) ty[j] = std::max(ty[j], x[j]);
+            }
+            t = ty;
+            for (auto e = A_.row_start[a]; e < A_.row_start[a + 1]; ++e) {
+                int d = A_.dest[e];
+                if (d == a || d == n) continue;
+                const std::int32_t* x = &grow[d]->ex[static_cast<std::size_t>(b) * k];
+                for (std::size_t j = 0; j < k; ++j) t[j] = std::max(t[j], x[j]);
+            }
+            const bool need_y = wsa > 0 || g != nullptr;
+            if (need_y) {
+                for (int c = 0; c < cm; ++c) y[c] = 0;
+                for (auto e = B_.row_start[b]; e < B_.row_start[b + 1]; ++e) {
+                    int d = B_.dest[e];
+                    if (d == b) continue;
+                    if (d == n) {
+                        add_const(y[LOSS], B_.weight[e], 1, ty.data(), tmp);
+                        continue;
+                    }
+                    const mpz_class* x = &frow.num[static_cast<std::size_t>(d) * cm];
+                    const std::int32_t* xe = &frow.ex[static_cast<std::size_t>(d) * k];
+                    for (int c = 0; c < cm; ++c) add_scaled(y[c], x[c], B_.weight[e], ty.data(), xe, tmp);
+                }
+            }
+            for (int c = 0; c < cm; ++c) s[c] = 0;
+            for (auto e = A_.row_start[a]; e < A_.row_start[a + 1]; ++e) {
+                int d = A_.dest[e];
+                if (d == a) continue;
+                const u64 w = A_.weight[e];
+                if (d == n) {
+                    if (a_first_) {
+                        add_const(s[WIN], w, db, t.data(), tmp);
+                    } else {
+                        add_const(s[WIN], w, db - B_.finish_weight[b], t.data(), tmp);
+                        add_const(s[TIE], w, B_.finish_weight[b], t.data(), tmp);
+                    }
+                    continue;
+                }
+                const mpz_class* x = &grow[d]->num[static_cast<std::size_t>(b) * cm];
+                const std::int32_t* xe = &grow[d]->ex[static_cast<std::size_t>(b) * k];
+                for (int c = 0; c < cm; ++c) add_scaled(s[c], x[c], w, t.data(), xe, tmp);
+            }
+            if (wsa > 0)
+                for (int c = 0; c < cm; ++c) add_scaled(s[c], y[c], wsa, t.data(), ty.data(), tmp);
+            // Divide by q: a tracked q raises its exponent, a rare one divides exactly.
+            if (kind >= 0) {
+                for (int c = 0; c < cm; ++c) fnum[c].swap(s[c]);
+                std::copy(t.begin(), t.end(), fex);
+                fex[kind] += 1;
+            } else {
+                const mpz_class q = to_mpz(qvalue_[static_cast<std::size_t>(ia_[a]) * nb_ + ib_[b]]);
+                for (int c = 0; c < cm; ++c) {
+                    if (!mpz_divisible_p(s[c].get_mpz_t(), q.get_mpz_t()))
+                        throw InternalError("exact pair programme: a self-loop denominator does not divide");
+                    mpz_divexact(fnum[c].get_mpz_t(), s[c].get_mpz_t(), q.get_mpz_t());
+                }
+                std::copy(t.begin(), t.end(), fex);
+            }
+            if (g) {
+                mpz_class* gn = &g->num[static_cast<std::size_t>(b) * cm];
+                std::int32_t* ge = &g->ex[static_cast<std::size_t>(b) * k];
+                for (int c = 0; c < cm; ++c) {
+                    gn[c] = 0;
+                    if (wsb > 0) mpz_addmul_ui(gn[c].get_mpz_t(), fnum[c].get_mpz_t(), static_cast<unsigned long>(wsb));
+                    add_scaled(gn[c], y[c], 1, fex, ty.data(), tmp);
+                }
+                std::copy(fex, fex + k, ge);
+            }
+        }
+        for (int d : free_after[a]) pool.push_back(std::move(grow[d]));
+    }
+    std::array<mpq_class, 3> out;
+    mpz_class den = c_;
+    for (std::size_t j = 0; j < k; ++j) den *= power(j, frow.ex[j]);
+    for (int c = 0; c < cm; ++c) {
+        out[c] = mpq_class(frow.num[c], den);
+        out[c].canonicalize();
+    }
+    if (cm == 2) out[2] = 0;
+    return out;
+}
+
+// ---------------------------------------------------------------------------
+// Exact elimination of the product chain (small general boards): the integer
+// system DA DB (I - M) x = r solved by fraction-free (Bareiss) elimination,
+// which keeps every entry an integer and divides exactly; I - M is a
+// nonsingular M-matrix, so no pivot vanishes.
+std::array<mpq_class, 3> exact_elimination(const Chain& A, const Chain& B, bool a_first) {
+    const int n = A.length;
+    std::vector<int> idx(static_cast<std::size_t>(n) * n, -1);
+    int count = 0;
+    for (int a = 0; a < n; ++a)
+        for (int b = 0; b < n; ++b)
+            if (A.resting[a] && B.resting[b] && !(A.stuck[a] && B.stuck[b]))
+                idx[static_cast<std::size_t>(a) * n + b] = count++;
+    std::array<mpq_class, 3> out{0, 0, 0};
+    if (idx[0] < 0) return out;
+    const int cols = count + 3;
+    std::vector<mpz_class> m(static_cast<std::size_t>(count) * cols);
+    auto at = [&](int i, int j) -> mpz_class& { return m[static_cast<std::size_t>(i) * cols + j]; };
+    const mpz_class full = mpz_class(static_cast<unsigned long>(A.denominator)) * static_cast<unsigned long>(B.denominator);
+    for (int a = 0; a < n; ++a)
+        for (int b = 0; b < n; ++b) {
+            int i = idx[static_cast<std::size_t>(a) * n + b];
+            if (i < 0) continue;
+            at(i, i) += full;
+            for (auto ka = A.row_start[a]; ka < A.row_start[a + 1]; ++ka) {
+                int da = A.dest[ka];
+                for (auto kb = B.row_start[b]; kb < B.row_start[b + 1]; ++kb) {
+                    int dbq = B.dest[kb];
+                    mpz_class w = mpz_class(static_cast<unsigned long>(A.weight[ka])) * static_cast<unsigned long>(B.weight[kb]);
+                    if (da == n) {
+                        if (a_first || dbq != n) at(i, count + 0) += w;
+                        else at(i, count + 2) += w;
+                    } else if (dbq == n) {
+                        at(i, count + 1) += w;
+                    } else {
+                        int j = idx[static_cast<std::size_t>(da) * n + dbq];
+                        if (j >= 0) at(i, j) -= w;
+                    }
+                }
+            }
+        }
+    // Bareiss forward elimination on the augmented matrix.
+    mpz_class prev = 1, t1;
+    for (int p = 0; p < count; ++p) {
+        if (at(p, p) == 0) throw InternalError("exact elimination: zero pivot");
+        for (int i = p + 1; i < count; ++i) {
+            for (int j = p + 1; j < cols; ++j) {
+                t1 = at(i, j) * at(p, p);
+                mpz_submul(t1.get_mpz_t(), at(i, p).get_mpz_t(), at(p, j).get_mpz_t());
+                mpz_divexact(at(i, j).get_mpz_t(), t1.get_mpz_t(), prev.get_mpz_t());
+            }
+            at(i, p) = 0;
+        }
+        prev = at(p, p);
+    }
+    // Back substitution in rationals; only n^2 operations.
+    std::vector<std::array<mpq_class, 3>> x(count);
+    for (int i = count - 1; i >= 0; --i)
+        for (int c = 0; c < 3; ++c) {
+            mpq_class s(at(i, count + c));
+            for (int j = i + 1; j < count; ++j)
+                if (at(i, j) != 0) s -= mpq_class(at(i, j)) * x[j][c];
+            s /= mpq_class(at(i, i));
+            x[i][c] = s;
+        }
+    for (int c = 0; c < 3; ++c) out[c] = x[idx[0]][c];
+    return out;
+}
+
+std::array<mpq_class, 3> solve_ordered(const Chain& a, const Chain& b, bool a_first) {
+    if (a.forward_only) {
+        ExactPairs p(a, b, a_first);
+        return p.run();
+    }
+    return exact_elimination(a, b, a_first);
+}
+
+}  // namespace
+
+std::string exact_refusal(const Chain& a, const Chain& b) {
+    if (a.length != b.length) return "the two chains are on different boards";
+    if (a.forward_only) return {};
+    if (a.length <= exact_elimination_max_squares) return {};
+    return fmt::format(
+        "exact mode: pieces can move backward on this board (a backward jump or the bounce rule) and its {} "
+        "squares exceed the {} that exact elimination handles; omit --exact to get probabilities with a "
+        "proven error bound",
+        a.length, exact_elimination_max_squares);
+}
+
+ExactDuel exact_duel(const Chain& a, const Chain& b, Order order) {
+    if (std::string why = exact_refusal(a, b); !why.empty()) throw LimitError(why);
+    ExactDuel r;
+    r.method = a.forward_only ? "exact pair programme" : "exact elimination";
+    auto fill = [&](const std::array<mpq_class, 3>& v, bool swap) {
+        r.p_a_wins = swap ? v[1] : v[0];
+        r.p_b_wins = swap ? v[0] : v[1];
+        r.p_tie = v[2];
+    };
+    switch (order) {
+        case Order::simultaneous: fill(solve_ordered(a, b, false), false); break;
+        case Order::a_first: fill(solve_ordered(a, b, true), false); break;
+        case Order::b_first: fill(solve_ordered(b, a, true), true); break;
+        case Order::coin: {
+            auto x = solve_ordered(a, b, true);
+            auto y = solve_ordered(b, a, true);
+            r.p_a_wins = (x[0] + y[1]) / 2;
+            r.p_b_wins = (x[1] + y[0]) / 2;
+            r.p_tie = 0;
+            break;
+        }
+    }
+    r.p_neither = 1 - r.p_a_wins - r.p_b_wins - r.p_tie;
+    if (r.p_neither < 0) throw InternalError("exact duel: the outcomes exceed 1");
+    return r;
+}
+
+std::vector<ExactDuel> exact_duels(const std::vector<std::pair<const Chain*, const Chain*>>& pairs, Order order,
+                                   int threads) {
+    std::vector<ExactDuel> out(pairs.size());
+    for (const auto& [a, b] : pairs)
+        if (std::string why = exact_refusal(*a, *b); !why.empty()) throw LimitError(why);
+    if (threads <= 0) threads = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+    threads = std::min<int>(threads, static_cast<int>(std::max<std::size_t>(pairs.size(), 1)));
+    std::atomic<std::size_t> next{0};
+    std::exception_ptr failure;
+    std::mutex mu;
+    auto work = [&] {
+        try {
+            for (std::size_t i; (i = next.fetch_add(1)) < pairs.size();)
+                out[i] = exact_duel(*pairs[i].first, *pairs[i].second, order);
+        } catch (...) {
+            std::lock_guard<std::mutex> lock(mu);
+            if (!failure) failure = std::current_exception();
+            next.store(pairs.size());
+        }
+    };
+    std::vector<std::thread> pool;
+    for (int t = 1; t < threads; ++t) pool.emplace_back(work);
+    work();
+    for (auto& t : pool) t.join();
+    if (failure) std::rethrow_exception(failure);
+    return out;
+}
+
+std::string fraction_string(const mpq_class& q) {
+    return q.get_num().get_str() + "/" + q.get_den().get_str();
+}
+
+std::string decimal_string(const mpq_class& q, int places) {
+    mpz_class scale;
+    mpz_ui_pow_ui(scale.get_mpz_t(), 10, static_cast<unsigned long>(places));
+    mpz_class num = abs(q.get_num()) * scale * 2 + q.get_den();
+    mpz_class den = q.get_den() * 2;
+    mpz_class r;
+    mpz_fdiv_q(r.get_mpz_t(), num.get_mpz_t(), den.get_mpz_t());  // round half away from zero
+    std::string digits = r.get_str();
+    if (static_cast<int>(digits.size()) <= places) digits.insert(0, static_cast<std::size_t>(places + 1) - digits.size(), '0');
+    std::string out = digits.substr(0, digits.size() - places);
+    if (places > 0) out += "." + digits.substr(digits.size() - places);
+    if (q < 0 && r != 0) out.insert(0, "-");
+    return out;
+}
+
+mpq_class parse_fraction(const std::string& text, const std::string& what) {
+    auto digits_ok = [](const std::string& s, bool sign) {
+        std::size_t i = sign && !s.empty() && s[0] == '-' ? 1 : 0;
+        if (i >= s.size()) return false;
+        for (; i < s.size(); ++i)
+            if (s[i] < '0' || s[i] > '9') return false;
+        return true;
+    };
+    auto slash = text.find('/');
+    std::string num = text.substr(0, slash);
+    std::string den = slash == std::string::npos ? "1" : text.substr(slash + 1);
+    if (!digits_ok(num, true) || !digits_ok(den, false))
+        throw InputError(fmt::format("{}: '{}' is not a fraction num/den", what,
+                                     text.size() > 40 ? text.substr(0, 40) + "..." : text));
+    mpq_class q;
+    q.get_num() = mpz_class(num, 10);
+    q.get_den() = mpz_class(den, 10);
+    if (q.get_den() == 0) throw InputError(fmt::format("{}: zero denominator", what));
+    return q;
+}
+
+}  // namespace overshoot

@@ -1,0 +1,52 @@
+#pragma once
+// Exact duels: every outcome probability as a reduced fraction (GMP).
+//
+// Boards where pieces never move backward use the pair programme of
+// race/pairs.hpp in exact integer arithmetic: each cell keeps an integer
+// numerator over a denominator that is tracked symbolically (powers of a few
+// self-loop denominators, times one fixed product of the rare ones), so no
+// fraction is reduced until the very end (docs/exact.md). Small general boards
+// are solved by exact elimination of the product chain. Anything else is
+// refused with a message that points to the proven intervals of duel().
+#include <gmpxx.h>
+
+#include <array>
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "chain/chain.hpp"
+#include "core/board.hpp"
+
+namespace overshoot {
+
+struct ExactDuel {
+    mpq_class p_a_wins, p_b_wins, p_tie, p_neither;  // reduced, summing to 1
+    std::string method;                              // "exact pair programme" or "exact elimination"
+    mpq_class margin() const { return p_a_wins - p_b_wins; }
+};
+
+// Largest product chain (pairs of squares) solved by exact elimination on
+// boards where pieces can move backward.
+inline constexpr int exact_elimination_max_squares = 12;
+
+// Empty when exact mode can handle this duel; otherwise the reason, one line.
+std::string exact_refusal(const Chain& a, const Chain& b);
+
+// Throws LimitError (with exact_refusal's reason) when exact mode cannot.
+ExactDuel exact_duel(const Chain& a, const Chain& b, Order order);
+
+// Several duels at once on up to `threads` threads (0 = all cores); the result
+// does not depend on the thread count.
+std::vector<ExactDuel> exact_duels(const std::vector<std::pair<const Chain*, const Chain*>>& pairs, Order order,
+                                   int threads = 0);
+
+// "num/den" (den 1 is still written), and the value rounded to `places`
+// decimals (ties away from zero), e.g. "0.512345" or "-0.001200".
+std::string fraction_string(const mpq_class& q);
+std::string decimal_string(const mpq_class& q, int places);
+// Parses "num/den" or an integer, as written (not reduced: callers that
+// compute with it canonicalize); throws InputError naming `what` when malformed.
+mpq_class parse_fraction(const std::string& text, const std::string& what);
+
+}  // namespace overshoot
