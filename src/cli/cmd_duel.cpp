@@ -1,10 +1,13 @@
 // overshoot duel A B: the exact race of two options on one board.
 #include <memory>
+#include <optional>
 
 #include "chain/chain.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "race/duel.hpp"
+#include "race/exact.hpp"
+#include "render/exact.hpp"
 #include "render/race.hpp"
 
 namespace overshoot::cli {
@@ -14,6 +17,7 @@ struct DuelArgs {
     BoardFlags board;
     std::vector<std::string> specs;
     std::string method = "auto";
+    bool exact = false;
 };
 
 void run(const DuelArgs& a) {
@@ -23,10 +27,17 @@ void run(const DuelArgs& a) {
     Chain ca = build_chain(s.board, s.options[0]);
     Chain cb = build_chain(s.board, s.options[1]);
     DuelResult r = duel(ca, cb, s.order, ds);
-    if (a.board.json)
-        emit(render::duel_json(s.board, s.order, s.options[0], s.options[1], r).dump(2));
-    else
-        emit(render::duel_text(s.board, s.order, s.options[0], s.options[1], r));
+    std::optional<ExactDuel> ex;
+    if (a.exact) ex = exact_duel(ca, cb, s.order);  // refuses (exit 2) with the reason
+    if (a.board.json) {
+        auto j = render::duel_json(s.board, s.order, s.options[0], s.options[1], r);
+        if (ex) j["exact"] = render::exact_duel_json(*ex);
+        emit(j.dump(2));
+    } else {
+        std::string text = render::duel_text(s.board, s.order, s.options[0], s.options[1], r);
+        if (ex) text += render::exact_duel_text(s.options[0], s.options[1], *ex);
+        emit(text);
+    }
 }
 
 const Registration reg(20, [](CLI::App& app) {
@@ -35,6 +46,7 @@ const Registration reg(20, [](CLI::App& app) {
     cmd->add_option("specs", args->specs, "two option specs or scenario names")->expected(0, 2);
     add_board_flags(*cmd, args->board);
     cmd->add_option("--method", args->method, "auto, pairs, zone, series or product (docs/method.md)");
+    cmd->add_flag("--exact", args->exact, "also give every probability as an exact fraction (docs/exact.md)");
     cmd->callback([args] { run(*args); });
 });
 

@@ -1,0 +1,26 @@
+#include "render/exact.hpp"
+
+#include <fmt/format.h>
+
+namespace overshoot::render {
+
+nlohmann::json exact_duel_json(const ExactDuel& e) {
+    return {{"p_a_wins", fraction_string(e.p_a_wins)}, {"p_b_wins", fraction_string(e.p_b_wins)},
+            {"p_tie", fraction_string(e.p_tie)},       {"p_neither", fraction_string(e.p_neither)},
+            {"margin", fraction_string(e.margin())},   {"method", e.method}};
+}
+
+std::string exact_duel_text(const Option& a, const Option& b, const ExactDuel& e) {
+    std::string out = fmt::format("\nexact values ({}):\n", e.method);
+    auto line = [&](const std::string& what, const mpq_class& q) {
+        out += fmt::format("  {:<22} {}  = {}\n", what, decimal_string(q, 12), fraction_string(q));
+    };
+    line(a.name + " wins", e.p_a_wins);
+    line(b.name + " wins", e.p_b_wins);
+    line("tie (shared finish)", e.p_tie);
+    line("neither finishes", e.p_neither);
+    line("margin", e.margin());
+    return out;
+}
+
+}  // namespace overshoot::render
