@@ -1,0 +1,110 @@
+// overshoot race SPEC SPEC [SPEC...]: a race of 2 to 6 pieces on one board.
+#include <fmt/format.h>
+
+#include <memory>
+
+#include "chain/chain.hpp"
+#include "cli/common.hpp"
+#include "cli/race_flags.hpp"
+#include "cli/registry.hpp"
+#include "core/error.hpp"
+#include "race/multi.hpp"
+#include "render/multi.hpp"
+
+namespace overshoot::cli {
+
+RaceOrder race_order_of(const std::optional<std::string>& flag, const BoardFlags& board) {
+    if (flag) return parse_race_order(*flag);
+    if (board.scenario) {
+        Scenario sc = load_scenario(*board.scenario);
+        if (sc.order && *sc.order != Order::simultaneous)
+            throw InputError(fmt::format("{}: order '{}' is for duels; a race takes --order simultaneous or seated",
+                                         *board.scenario, to_string(*sc.order)));
+    }
+    return RaceOrder::simultaneous;
+}
+
+std::vector<int> parse_starts(const std::vector<std::string>& words, std::size_t pieces) {
+    std::vector<int> out;
+    for (const auto& w : words) {
+        std::size_t pos = 0;
+        int v = 0;
+        try {
+            v = std::stoi(w, &pos);
+        } catch (const std::exception&) {
+            pos = 0;
+        }
+        if (pos == 0 || pos != w.size()) throw InputError(fmt::format("--start '{}': expected a square number", w));
+        out.push_back(v);
+    }
+    if (!out.empty() && out.size() != pieces)
+        throw InputError(fmt::format("--start given {} times for {} pieces: give one per piece, in order", out.size(), pieces));
+    return out;
+}
+
+namespace {
+
+struct RaceArgs {
+    BoardFlags board;
+    std::vector<std::string> specs;
+    std::optional<std::string> order;
+    std::vector<std::string> starts;
+};
+
+void run(const RaceArgs& a) {
+    Setup s = resolve_setup(a.board, a.specs, 2, max_race_pieces);
+    const RaceOrder order = race_order_of(a.order, a.board);
+    std::vector<int> starts = parse_starts(a.starts, s.options.size());
+    std::vector<int> resolved;
+    for (int st : starts) resolved.push_back(resolve_start(s.board, st));
+    std::vector<Chain> chains;
+    for (const auto& o : s.options) chains.push_back(build_chain(s.board, o));
+    std::vector<const Chain*> ptr;
+    for (const auto& c : chains) ptr.push_back(&c);
+    RaceResult r = race(ptr, resolved, order);
+    render::RaceView view{&s.board, order, &s.options, starts, &r};
+    if (a.board.json)
+        emit(render::race_json(view).dump(2));
+    else
+        emit(render::race_text(view));
+}
+
+const Registration reg(30, [](CLI::App& app) {
+    auto args = std::make_shared<RaceArgs>();
+    auto* cmd = app.add_subcommand("race", "a race of 2 to 6 pieces: each piece's chance to finish first alone");
+    cmd->add_option("specs", args->specs, "option specs or scenario names, one per piece (repeats allowed)");
+    add_board_flags(*cmd, args->board, false);
+    cmd->add_option("--order", args->order, "simultaneous (same-round finishers share) or seated (listed order, first to land wins)");
+    cmd->add_option("--start", args->starts, "start square of each piece, in order (repeat once per piece)");
+    cmd->callback([args] { run(*args); });
+});
+
+}  // namespace
+}  // namespace overshoot::cli
+
+namespace overshoot::cli {
+
+std::pair<int, int> parse_range(const std::string& text, const char* what) {
+    auto number = [&](const std::string& w) {
+        std::size_t pos = 0;
+        int v = 0;
+        try {
+            v = std::stoi(w, &pos);
+        } catch (const std::exception&) {
+            pos = 0;
+        }
+        if (pos == 0 || pos != w.size())
+            throw InputError(fmt::format("{} '{}': expected LO..HI or one number", what, text));
+        return v;
+    };
+    const auto dots = text.find("..");
+    if (dots == std::string::npos) {
+        int v = number(text);
+        return {v, v};
+    }
+    int lo = number(text.substr(0, dots)), hi = number(text.substr(dots + 2));
+    if (lo > hi) throw InputError(fmt::format("{} '{}': the low end is above the high end", what, text));
+    return {lo, hi};
+}
+
+}  // namespace overshoot::cli

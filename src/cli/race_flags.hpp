@@ -1,0 +1,22 @@
+#pragma once
+// Flags shared by the race, choose and balance commands.
+#include <optional>
+#include <string>
+#include <vector>
+
+#include "cli/common.hpp"
+#include "race/multi.hpp"
+
+namespace overshoot::cli {
+
+// The race order comes from --order (simultaneous or seated) or the scenario,
+// whose duel orders are refused with a pointer to the two that apply.
+RaceOrder race_order_of(const std::optional<std::string>& flag, const BoardFlags& board);
+
+// --start words as square numbers, one per piece (or none).
+std::vector<int> parse_starts(const std::vector<std::string>& words, std::size_t pieces);
+
+// "LO..HI" (or one number) as an inclusive range; `what` names the flag.
+std::pair<int, int> parse_range(const std::string& text, const char* what);
+
+}  // namespace overshoot::cli
