@@ -1,0 +1,214 @@
+// Writing certificates: every duel a claim rests on, exact and by proven interval.
+#include <fmt/format.h>
+
+#include <cmath>
+#include <map>
+#include <set>
+
+#include "certify/certificate.hpp"
+#include "certify/pool.hpp"
+#include "chain/chain.hpp"
+#include "core/error.hpp"
+#include "race/duel.hpp"
+#include "race/exact.hpp"
+
+namespace overshoot {
+
+std::string_view to_string(ClaimKind k) {
+    switch (k) {
+        case ClaimKind::cycle: return "cycle";
+        case ClaimKind::crossover: return "crossover";
+        case ClaimKind::winner: return "winner";
+    }
+    return "?";
+}
+
+std::string_view to_string(Verdict v) {
+    switch (v) {
+        case Verdict::a_beats_b: return "a beats b";
+        case Verdict::b_beats_a: return "b beats a";
+        case Verdict::undecided: return "undecided";
+    }
+    return "?";
+}
+
+std::vector<NeededDuel> needed_duels(const Claim& c, int length) {
+    const auto& o = c.options;
+    std::set<std::string> seen(o.begin(), o.end());
+    if (seen.size() != o.size()) throw InputError("claim: an option is named twice");
+    std::vector<NeededDuel> out;
+    switch (c.kind) {
+        case ClaimKind::cycle:
+            if (o.size() < 3) throw InputError("claim cycle: needs at least 3 options (each beats the next, the last beats the first)");
+            for (std::size_t i = 0; i < o.size(); ++i)
+                out.push_back({o[i], o[(i + 1) % o.size()], length, Verdict::a_beats_b});
+            break;
+        case ClaimKind::crossover:
+            if (o.size() != 2) throw InputError("claim crossover: needs exactly 2 options");
+            if (c.at < 2) throw InputError(fmt::format("claim crossover: --at {} must be at least 2", c.at));
+            out.push_back({o[0], o[1], c.at - 1, std::nullopt});
+            out.push_back({o[0], o[1], c.at, std::nullopt});
+            break;
+        case ClaimKind::winner:
+            if (o.size() < 2) throw InputError("claim winner: needs the winner and at least one other option");
+            for (std::size_t i = 1; i < o.size(); ++i) out.push_back({o[0], o[i], length, Verdict::a_beats_b});
+            break;
+    }
+    return out;
+}
+
+std::string claim_statement(const Claim& c, const Board& b, Order order) {
+    std::string rel;
+    const auto& o = c.options;
+    auto list = [](const std::vector<std::string>& parts) {
+        std::string s;
+        for (std::size_t i = 0; i < parts.size(); ++i)
+            s += (i == 0 ? "" : i + 1 == parts.size() ? " and " : ", ") + parts[i];
+        return s;
+    };
+    switch (c.kind) {
+        case ClaimKind::cycle: {
+            std::vector<std::string> parts;
+            for (std::size_t i = 0; i < o.size(); ++i) parts.push_back(o[i] + " beats " + o[(i + 1) % o.size()]);
+            rel = list(parts);
+            break;
+        }
+        case ClaimKind::crossover:
+            rel = fmt::format("the preference between {} and {} changes between lengths {} and {}", o.at(0), o.at(1),
+                              c.at - 1, c.at);
+            break;
+        case ClaimKind::winner:
+            rel = fmt::format("{} beats {}", o.at(0), list(std::vector<std::string>(o.begin() + 1, o.end())));
+            break;
+    }
+    std::string jumps = "no jumps";
+    if (!b.jumps.empty()) {
+        jumps = "jumps";
+        for (const Jump& j : b.jumps) jumps += fmt::format(" {}->{}", j.from, j.to);
+    }
+    std::string where = c.kind == ClaimKind::crossover ? std::string("a board") : fmt::format("a board of {} squares", b.length);
+    return fmt::format("{}, on {} (overshoot {}, {} turns, {})", rel, where, to_string(b.rule), to_string(order), jumps);
+}
+
+namespace {
+
+double down(long double x) {
+    double d = static_cast<double>(x);
+    if (static_cast<long double>(d) > x) d = std::nextafter(d, -HUGE_VAL);
+    return d;
+}
+double up(long double x) {
+    double d = static_cast<double>(x);
+    if (static_cast<long double>(d) < x) d = std::nextafter(d, HUGE_VAL);
+    return d;
+}
+
+// [x - r, x + r] widened by the rounding of the subtraction itself, rounded outward.
+CertValue interval(long double x, long double r, bool probability) {
+    CertValue v;
+    const long double slack = r + 4 * std::ldexp(1.0L, -63) * (1 + std::fabs(x));
+    v.lo = down(x - slack);
+    v.hi = up(x + slack);
+    if (probability) {
+        v.lo = std::max(v.lo, 0.0);
+        v.hi = std::min(v.hi, 1.0);
+    }
+    v.decimal = fmt::format("{:.6f}", static_cast<double>(x));
+    return v;
+}
+
+}  // namespace
+
+Certificate certify(const Claim& claim, const Board& board, Order order, const std::vector<Option>& options,
+                    int threads) {
+    Certificate cert;
+    cert.claim = claim;
+    cert.board = board;
+    cert.order = order;
+    if (claim.kind == ClaimKind::crossover && board.length != claim.at)
+        throw InputError(fmt::format("claim crossover: the board length {} differs from --at {}", board.length, claim.at));
+    std::vector<NeededDuel> need = needed_duels(claim, board.length);
+    if (options.size() != claim.options.size()) throw InternalError("certify: options and claim disagree");
+    std::map<std::string, std::size_t> by_name;
+    for (std::size_t i = 0; i < options.size(); ++i) {
+        if (options[i].name != claim.options[i]) throw InternalError("certify: options and claim disagree");
+        by_name[options[i].name] = i;
+    }
+    cert.options = options;
+    cert.statement = claim_statement(claim, board, order);
+    // One board per length the claim needs (crossover: two).
+    std::map<int, Board> boards;
+    for (const auto& n : need)
+        if (!boards.count(n.length)) boards[n.length] = make_board(n.length, board.rule, board.jumps);
+    std::map<std::pair<int, std::size_t>, Chain> chains;
+    for (const auto& [len, b] : boards)
+        for (std::size_t i = 0; i < options.size(); ++i) chains[{len, i}] = build_chain(b, options[i]);
+    const std::size_t m = need.size();
+    std::vector<std::optional<ExactDuel>> exact(m);
+    std::vector<DuelResult> approx(m);
+    std::vector<std::string> refusal(m);
+    // Tasks 0..m-1 exact (the slow ones first), m..2m-1 floating point.
+    detail::parallel_for(2 * m, threads, [&](std::size_t t) {
+        const auto& n = need[t % m];
+        const Chain& ca = chains.at({n.length, by_name.at(n.a)});
+        const Chain& cb = chains.at({n.length, by_name.at(n.b)});
+        if (t < m) {
+            refusal[t] = exact_refusal(ca, cb);
+            if (refusal[t].empty()) exact[t] = exact_duel(ca, cb, order);
+        } else {
+            DuelSettings s;
+            s.want_median = false;
+            approx[t - m] = duel(ca, cb, order, s);
+        }
+    });
+    for (std::size_t i = 0; i < m; ++i) {
+        const DuelResult& r = approx[i];
+        CertDuel d;
+        d.a = need[i].a;
+        d.b = need[i].b;
+        d.length = need[i].length;
+        const long double bound = r.bound_proven ? r.bound : 1.0L;
+        d.p_a_wins = interval(r.p_a_wins, bound, true);
+        d.p_b_wins = interval(r.p_b_wins, bound, true);
+        d.p_tie = interval(r.p_tie, bound, true);
+        d.p_neither = interval(r.p_neither, bound, true);
+        d.margin = interval(r.p_a_wins - r.p_b_wins, 2 * bound, false);
+        d.interval_method = r.method + (r.bound_proven ? "" : " (bound not proven: interval widened to the trivial one)");
+        if (exact[i]) {
+            const ExactDuel& e = *exact[i];
+            d.exact_method = e.method;
+            auto set = [](CertValue& v, const mpq_class& q) {
+                v.exact = q;
+                v.decimal = decimal_string(q, 6);
+            };
+            set(d.p_a_wins, e.p_a_wins);
+            set(d.p_b_wins, e.p_b_wins);
+            set(d.p_tie, e.p_tie);
+            set(d.p_neither, e.p_neither);
+            set(d.margin, e.margin());
+            const int s = sgn(e.margin());
+            d.verdict = s > 0 ? Verdict::a_beats_b : s < 0 ? Verdict::b_beats_a : Verdict::undecided;
+        } else {
+            d.verdict = d.margin.lo > 0 ? Verdict::a_beats_b : d.margin.hi < 0 ? Verdict::b_beats_a : Verdict::undecided;
+        }
+        cert.duels.push_back(std::move(d));
+    }
+    // The claim must hold before anything is written.
+    auto where = [](const CertDuel& d) { return fmt::format("{} vs {} on {} squares", d.a, d.b, d.length); };
+    for (std::size_t i = 0; i < m; ++i) {
+        const CertDuel& d = cert.duels[i];
+        if (need[i].want && d.verdict != *need[i].want)
+            throw ClaimFailure(fmt::format("the claim does not hold: {} ({}, margin {})", where(d),
+                                           d.verdict == Verdict::undecided ? "undecided" : fmt::format("{} beats {}", d.b, d.a),
+                                           d.margin.decimal));
+    }
+    if (claim.kind == ClaimKind::crossover) {
+        const CertDuel &x = cert.duels[0], &y = cert.duels[1];
+        if (x.verdict == Verdict::undecided || y.verdict == Verdict::undecided || x.verdict == y.verdict)
+            throw ClaimFailure(fmt::format("the claim does not hold: {} is '{}' and {} is '{}'", where(x),
+                                           to_string(x.verdict), where(y), to_string(y.verdict)));
+    }
+    return cert;
+}
+
+}  // namespace overshoot

@@ -1,0 +1,84 @@
+// overshoot certify cycle|crossover|winner: writes a certificate a referee can re-check.
+#include <fmt/format.h>
+
+#include <cstdio>
+#include <memory>
+
+#include "certify/certificate.hpp"
+#include "cli/common.hpp"
+#include "cli/registry.hpp"
+#include "core/error.hpp"
+#include "core/io.hpp"
+#include "render/certificate.hpp"
+
+namespace overshoot::cli {
+namespace {
+
+struct CertifyArgs {
+    ClaimKind kind = ClaimKind::cycle;
+    BoardFlags board;
+    std::vector<std::string> specs;
+    std::optional<int> at;
+    std::string output;
+    std::string format = "json";
+    int threads = 0;
+};
+
+void run(const CertifyArgs& a) {
+    if (a.format != "json" && a.format != "md" && a.format != "latex")
+        throw InputError(fmt::format("--format '{}': expected json, md or latex", a.format));
+    BoardFlags flags = a.board;
+    if (a.kind == ClaimKind::crossover) {
+        if (!a.at) throw InputError("certify crossover: give --at LENGTH (the preference differs at LENGTH-1 and LENGTH)");
+        if (flags.length && *flags.length != *a.at)
+            throw InputError(fmt::format("certify crossover: --length {} differs from --at {}; give only --at", *flags.length, *a.at));
+        flags.length = *a.at;
+    }
+    const std::size_t lo = a.kind == ClaimKind::cycle ? 3 : 2;
+    const std::size_t hi = a.kind == ClaimKind::crossover ? 2 : 1000;
+    Setup s = resolve_setup(flags, a.specs, lo, hi);
+    Claim claim;
+    claim.kind = a.kind;
+    claim.at = a.at.value_or(0);
+    for (const auto& o : s.options) claim.options.push_back(o.name);
+    Certificate cert;
+    try {
+        cert = certify(claim, s.board, s.order, s.options, a.threads);
+    } catch (const ClaimFailure& e) {
+        std::fprintf(stderr, "overshoot: %s; no certificate written\n", e.what());
+        exit_status() = 1;
+        return;
+    }
+    std::string text = a.format == "md"      ? render::certificate_markdown(cert)
+                       : a.format == "latex" ? render::certificate_latex(cert)
+                                             : render::certificate_json(cert).dump(1) + "\n";
+    if (a.output.empty())
+        emit(text);
+    else
+        write_atomically(a.output, text);
+}
+
+void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind kind) {
+    auto args = std::make_shared<CertifyArgs>();
+    args->kind = kind;
+    auto* cmd = parent.add_subcommand(name, help);
+    cmd->add_option("specs", args->specs, "option specs or scenario names");
+    add_board_flags(*cmd, args->board);
+    if (kind == ClaimKind::crossover)
+        cmd->add_option("--at", args->at, "the length where the preference has changed from LENGTH-1");
+    cmd->add_option("-o,--output", args->output, "write the certificate to FILE (atomically) instead of stdout");
+    cmd->add_option("--format", args->format, "json (the certificate, default), md or latex (for people)");
+    cmd->add_option("--threads", args->threads, "threads to use (default: all cores)");
+    cmd->callback([args] { run(*args); });
+}
+
+const Registration reg(70, [](CLI::App& app) {
+    auto* cmd = app.add_subcommand("certify", "write a certificate for a claim, with exact fractions and proven intervals");
+    cmd->require_subcommand(1);
+    add_kind(*cmd, "cycle", "each option beats the next and the last beats the first", ClaimKind::cycle);
+    add_kind(*cmd, "crossover", "the preference between A and B differs at LENGTH-1 and LENGTH", ClaimKind::crossover);
+    add_kind(*cmd, "winner", "the first option beats every other option listed", ClaimKind::winner);
+});
+
+}  // namespace
+}  // namespace overshoot::cli

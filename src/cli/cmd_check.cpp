@@ -1,0 +1,52 @@
+// overshoot check FILE: re-derives every number of a certificate by other algorithms.
+#include <fmt/format.h>
+
+#include <cstdio>
+#include <fstream>
+#include <memory>
+#include <sstream>
+
+#include "certify/certificate.hpp"
+#include "cli/common.hpp"
+#include "cli/registry.hpp"
+#include "core/error.hpp"
+#include "render/certificate.hpp"
+
+namespace overshoot::cli {
+namespace {
+
+struct CheckArgs {
+    std::string file;
+    bool json = false;
+    int threads = 0;
+};
+
+void run(const CheckArgs& a) {
+    std::ifstream in(a.file, std::ios::binary);
+    if (!in) throw InputError(fmt::format("{}: cannot be read", a.file));
+    std::stringstream ss;
+    ss << in.rdbuf();
+    const std::string text = ss.str();
+    Certificate cert = parse_certificate(text, a.file);  // malformed: exit 2
+    CheckReport rep = check_certificate(cert, text, a.threads);
+    if (a.json)
+        emit(render::check_json(cert, rep).dump(2));
+    else
+        emit(render::check_text(cert, rep));
+    if (!rep.holds) {
+        std::fprintf(stderr, "overshoot: %s: certificate fails: %s\n", a.file.c_str(), rep.failure.c_str());
+        exit_status() = 1;
+    }
+}
+
+const Registration reg(71, [](CLI::App& app) {
+    auto args = std::make_shared<CheckArgs>();
+    auto* cmd = app.add_subcommand("check", "re-check a certificate: exit 0 when it holds, 1 when it fails, 2 when unreadable");
+    cmd->add_option("file", args->file, "the certificate (JSON)")->required();
+    cmd->add_flag("--json", args->json, "print one JSON document instead of text");
+    cmd->add_option("--threads", args->threads, "threads to use (default: all cores)");
+    cmd->callback([args] { run(*args); });
+});
+
+}  // namespace
+}  // namespace overshoot::cli

@@ -1,0 +1,18 @@
+#pragma once
+// Certificates as JSON (the format of docs/certificate.md), Markdown and
+// LaTeX, and check reports as text or JSON.
+#include <nlohmann/json.hpp>
+#include <string>
+
+#include "certify/certificate.hpp"
+
+namespace overshoot::render {
+
+nlohmann::json certificate_json(const Certificate& c);
+std::string certificate_markdown(const Certificate& c);
+std::string certificate_latex(const Certificate& c);
+
+std::string check_text(const Certificate& c, const CheckReport& r);
+nlohmann::json check_json(const Certificate& c, const CheckReport& r);
+
+}  // namespace overshoot::render
