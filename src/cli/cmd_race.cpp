@@ -72,11 +72,16 @@ void run(const RaceArgs& a) {
 const Registration reg(30, [](CLI::App& app) {
     auto args = std::make_shared<RaceArgs>();
     auto* cmd = app.add_subcommand("race", "a race of 2 to 6 pieces: each piece's chance to finish first alone");
-    cmd->add_option("specs", args->specs, "option specs or scenario names, one per piece (repeats allowed)");
+    // Option words are taken verbatim from the extras: CLI11 would split a
+    // bracketed die such as "[0,2,3]" given to a positional list.
+    cmd->allow_extras();
     add_board_flags(*cmd, args->board, false);
     cmd->add_option("--order", args->order, "simultaneous (same-round finishers share) or seated (listed order, first to land wins)");
     cmd->add_option("--start", args->starts, "start square of each piece, in order (repeat once per piece)");
-    cmd->callback([args] { run(*args); });
+    cmd->callback([args, cmd] {
+        args->specs = option_words(*cmd);
+        run(*args);
+    });
 });
 
 }  // namespace
@@ -105,6 +110,18 @@ std::pair<int, int> parse_range(const std::string& text, const char* what) {
     int lo = number(text.substr(0, dots)), hi = number(text.substr(dots + 2));
     if (lo > hi) throw InputError(fmt::format("{} '{}': the low end is above the high end", what, text));
     return {lo, hi};
+}
+
+}  // namespace overshoot::cli
+
+namespace overshoot::cli {
+
+std::vector<std::string> option_words(const CLI::App& cmd) {
+    std::vector<std::string> words = cmd.remaining();
+    for (const auto& w : words)
+        if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
+            throw InputError(fmt::format("{}: unknown flag '{}' (see --help)", cmd.get_name(), w));
+    return words;
 }
 
 }  // namespace overshoot::cli

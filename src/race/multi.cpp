@@ -395,6 +395,16 @@ std::optional<RaceResult> race_from_tracks(const std::vector<const PieceTrack*>&
             s[j] = tr[j]->alive[i] + tr[j]->stuck[i];
         }
         add_round(subset, w, k, order, f.data(), s.data(), sp.data());
+        // Stop as soon as what is still unresolved is far below the target.
+        for (int j = 0; j < k; ++j) {
+            const std::size_t i = std::min(t, tr[j]->f.size() - 1);
+            alive[j] = tr[j]->alive[i];
+            stuck[j] = tr[j]->stuck[i];
+        }
+        if (unresolved(k, alive.data(), stuck.data()) < target / 16) {
+            horizon = t;
+            break;
+        }
     }
     long double frozen = 0, rounding = 0;
     for (int j = 0; j < k; ++j) {

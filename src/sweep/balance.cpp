@@ -75,23 +75,33 @@ struct StartSearch {
         long double max_lo = 0, min_hi = 1e9L;
         for (int i = 0; i <= r; ++i) {
             const PieceTrack& ti = *tracks[i][assign[i]];
-            long double lo = 0, hi = 0;
+            long double lo = 0, hi = ti.alive.back();  // what finishes after the recorded turns
             for (std::size_t t = 1; t < ti.f.size(); ++t) {
                 const long double f = ti.f[t];
-                if (f == 0) continue;
-                long double a = f, b = f;
-                for (int j = 0; j < n; ++j) {
-                    if (j == i) continue;
-                    // Seated: pieces after i have moved t - 1 times when i lands.
-                    const std::size_t tj = order == RaceOrder::seated && j > i ? t - 1 : t;
-                    const Envelope& e = j <= r ? single[j][assign[j]] : any[j];
-                    a *= e.at_lo(tj);
-                    b *= e.at_hi(tj);
+                if (f != 0) {
+                    long double a = f, b = f;
+                    for (int j = 0; j < n; ++j) {
+                        if (j == i) continue;
+                        // Seated: pieces after i have moved t - 1 times when i lands.
+                        const std::size_t tj = order == RaceOrder::seated && j > i ? t - 1 : t;
+                        const Envelope& e = j <= r ? single[j][assign[j]] : any[j];
+                        a *= e.at_lo(tj);
+                        b *= e.at_hi(tj);
+                    }
+                    lo += a;
+                    hi += b;
                 }
-                lo += a;
-                hi += b;
+                // Later terms sum to at most alive_i(t) prod_j hi_j(t) (survival only
+                // falls); stop once that is negligible and add it to the upper bound.
+                long double rest = ti.alive[t];
+                for (int j = 0; j < n && rest > 0; ++j)
+                    if (j != i) rest *= (j <= r ? single[j][assign[j]] : any[j]).at_hi(t);
+                if (rest < 1e-13L) {
+                    hi += rest;
+                    break;
+                }
             }
-            hi += ti.alive.back() + ti.rounding;  // anything after the recorded turns
+            hi += ti.rounding;
             lo -= ti.rounding;
             max_lo = std::max(max_lo, lo);
             min_hi = std::min(min_hi, hi);
