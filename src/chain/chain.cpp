@@ -71,9 +71,19 @@ Chain build_chain(const Board& board, const Option& option) {
     std::vector<int> in_degree(static_cast<std::size_t>(n) + 1, 0);
     for (int s = 0; s < n; ++s) {
         row.clear();
-        for (int m = 0; m <= option.max_move(); ++m)
-            if (option.weight[m] != 0) row.emplace_back(destination(board, s, m), option.weight[m]);
-        std::sort(row.begin(), row.end());
+        // Moves that end back on s (overshoot under stay, moves of 0) are merged
+        // up front; the rest usually arrive sorted, so sorting is rarely needed.
+        std::uint64_t stay = 0;
+        for (int m = 0; m <= option.max_move(); ++m) {
+            if (option.weight[m] == 0) continue;
+            const int d = destination(board, s, m);
+            if (d == s)
+                stay += option.weight[m];
+            else
+                row.emplace_back(d, option.weight[m]);
+        }
+        if (stay > 0) row.emplace_back(s, stay);
+        if (!std::is_sorted(row.begin(), row.end())) std::sort(row.begin(), row.end());
         for (std::size_t i = 0; i < row.size(); ++i) {
             if (!c.dest.empty() && static_cast<std::int64_t>(c.dest.size()) > c.row_start[s] &&
                 c.dest.back() == row[i].first) {

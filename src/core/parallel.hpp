@@ -1,0 +1,41 @@
+#pragma once
+// A minimal deterministic parallel loop: job k always writes its own slot, so
+// the result is the same whatever the number of threads.
+#include <algorithm>
+#include <atomic>
+#include <cstddef>
+#include <exception>
+#include <mutex>
+#include <thread>
+#include <vector>
+
+namespace overshoot {
+
+inline int default_threads() { return static_cast<int>(std::max(1u, std::thread::hardware_concurrency())); }
+
+// Calls f(k) for k in [0, count) on `threads` threads (0 = all cores). The
+// first exception thrown by any job is rethrown after every thread stopped.
+template <class F>
+void parallel_for(std::size_t count, int threads, F&& f) {
+    if (threads <= 0) threads = default_threads();
+    threads = static_cast<int>(std::min<std::size_t>(static_cast<std::size_t>(threads), std::max<std::size_t>(count, 1)));
+    std::atomic<std::size_t> next{0};
+    std::exception_ptr failure;
+    std::mutex failure_mutex;
+    auto work = [&] {
+        try {
+            for (std::size_t k; (k = next.fetch_add(1)) < count;) f(k);
+        } catch (...) {
+            std::lock_guard<std::mutex> lock(failure_mutex);
+            if (!failure) failure = std::current_exception();
+            next.store(count);
+        }
+    };
+    std::vector<std::thread> pool;
+    for (int t = 1; t < threads; ++t) pool.emplace_back(work);
+    work();
+    for (auto& t : pool) t.join();
+    if (failure) std::rethrow_exception(failure);
+}
+
+}  // namespace overshoot

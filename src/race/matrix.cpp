@@ -1,0 +1,356 @@
+// All pairs of a set of options on one board. Each option's series is run
+// once to a common horizon; every pair then costs one pass over the horizon
+// plus the pair programme on the two end zones left at that horizon.
+#include <algorithm>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+
+#include "chain/absorption.hpp"
+#include "chain/series.hpp"
+#include "core/error.hpp"
+#include "core/limits.hpp"
+#include "core/parallel.hpp"
+#include "race/duel.hpp"
+#include "race/pairs.hpp"
+
+namespace overshoot {
+
+namespace {
+
+constexpr long double kTarget = 1e-14L;
+constexpr int kMaxHorizon = 1 << 16;
+
+// One option's series up to the horizon: f[t], S[t] for t = 0..H and the
+// distribution left at H.
+struct Trace {
+    std::vector<long double> f, s;
+    std::vector<long double> v;  // distribution at H (length N), zero below lo
+    int lo = 0, hi = -1;
+    long double stuck = 0, rounding = 0, alive = 0;
+    Absorption absorption;
+};
+
+// Runs one option's series until it is done (alive mass below the target),
+// its zone (squares from the trailing mass to the finish) is narrow, or its
+// work budget is spent; then to the common horizon once that is known.
+class Tracer {
+public:
+    Tracer(const Chain& c, bool forward) : c_(&c), s_(c), forward_(forward) {
+        t_.f.push_back(0);
+        t_.s.push_back(1);
+    }
+    void run_to_stop(int narrow, std::uint64_t budget, int cap) {
+        while (s_.turn() < cap && s_.alive() >= kTarget && s_.work() < budget) {
+            if (forward_ && c_->length - s_.low() <= narrow) break;
+            advance();
+        }
+    }
+    int turn() const { return s_.turn(); }
+    // Zone width (squares from the trailing mass to the finish) at turn h,
+    // known for h at a checkpoint or past the stop (where it can only shrink).
+    int zone_at(int h) const {
+        for (const auto& k : checkpoints_)
+            if (k.turn == h) return k.zone;
+        return zone_now();
+    }
+    std::uint64_t work_at(int h) const {
+        for (const auto& k : checkpoints_)
+            if (k.turn == h) return k.work;
+        return s_.work();
+    }
+    // The trace at turn h: from a checkpoint when the series ran past h,
+    // otherwise by running on to h.
+    Trace finish(int h) {
+        while (s_.turn() < h) advance();
+        Trace out;
+        out.f.assign(t_.f.begin(), t_.f.begin() + h + 1);
+        out.s.assign(t_.s.begin(), t_.s.begin() + h + 1);
+        const Snapshot* k = nullptr;
+        for (const auto& c : checkpoints_)
+            if (c.turn == h) k = &c;
+        Snapshot now;
+        if (!k) {
+            now = snapshot();
+            k = &now;
+        }
+        out.stuck = k->stuck;
+        out.alive = k->alive;
+        out.rounding = k->rounding;
+        out.lo = k->lo;
+        out.hi = k->hi;
+        if (k->lo <= k->hi) {
+            out.v.assign(static_cast<std::size_t>(c_->length), 0.0L);
+            std::copy(k->mass.begin(), k->mass.end(), out.v.begin() + k->lo);
+        }
+        if (forward_) out.absorption = forward_absorption(*c_);
+        return out;
+    }
+
+private:
+    struct Snapshot {
+        int turn = 0, zone = 0, lo = 0, hi = -1;
+        std::uint64_t work = 0;
+        long double stuck = 0, alive = 0, rounding = 0;
+        std::vector<long double> mass;  // squares lo..hi
+    };
+    int zone_now() const {
+        if (s_.alive() <= 0) return 0;
+        return forward_ ? c_->length - s_.low() : c_->length;
+    }
+    Snapshot snapshot() const {
+        Snapshot k;
+        k.turn = s_.turn();
+        k.zone = zone_now();
+        k.work = s_.work();
+        k.stuck = s_.stuck();
+        k.alive = s_.alive();
+        k.rounding = s_.rounding_bound();
+        if (s_.alive() > 0) {
+            k.lo = s_.low();
+            k.hi = s_.high();
+            k.mass.assign(s_.mass().begin() + k.lo, s_.mass().begin() + k.hi + 1);
+        } else {
+            k.lo = c_->length;
+            k.hi = c_->length - 1;
+        }
+        return k;
+    }
+    void advance() {
+        long double f = s_.step();
+        t_.f.push_back(f);
+        t_.s.push_back(s_.survival());
+        const int t = s_.turn();
+        if ((t & (t - 1)) == 0 && t >= 8) checkpoints_.push_back(snapshot());
+    }
+    const Chain* c_;
+    Series s_;
+    bool forward_;
+    Trace t_;
+    std::vector<Snapshot> checkpoints_;
+};
+
+// Chooses, among the checkpoint turns (powers of two), the horizon with the
+// least estimated work: per pair one pass over the horizon plus the pair
+// programme on the zones left there, plus the series themselves.
+int choose_horizon(const std::vector<Tracer>& tracers, const std::vector<Chain>& chains) {
+    int longest = 0;
+    for (const auto& t : tracers) longest = std::max(longest, t.turn());
+    const std::size_t n = tracers.size();
+    double best_cost = -1;
+    int best = 0;
+    for (int h = 8;; h *= 2) {
+        const int at = std::min(h, longest);
+        double cost = 0;
+        std::vector<double> zone(n), row(n);
+        for (std::size_t i = 0; i < n; ++i) {
+            int hi = std::min(at, tracers[i].turn());
+            bool exact = hi == at;
+            zone[i] = exact ? tracers[i].zone_at(at) : tracers[i].zone_at(tracers[i].turn());
+            row[i] = std::min<double>(zone[i], chains[i].max_move + 1);
+            cost += static_cast<double>(tracers[i].work_at(hi));
+        }
+        const double pairs = static_cast<double>(n) * static_cast<double>(n + 1) / 2;
+        cost += pairs * at * 6;
+        for (std::size_t i = 0; i < n; ++i)
+            for (std::size_t j = i; j < n; ++j) cost += zone[i] * zone[j] * (row[i] + row[j]) * 4;
+        if (best_cost < 0 || cost < best_cost) {
+            best_cost = cost;
+            best = at;
+        }
+        if (at >= longest) break;
+    }
+    return best;
+}
+
+struct Sums {
+    long double win = 0, loss = 0, tie = 0, rounds = 0;
+};
+
+// Rounds 1..H of one ordered race from the two traces.
+Sums prefix(const Trace& a, const Trace& b, int horizon, bool a_first) {
+    Sums r;
+    for (int t = 1; t <= horizon; ++t) {
+        long double w, l, ti = 0;
+        if (a_first) {
+            w = a.f[t] * b.s[t - 1];
+            l = b.f[t] * a.s[t];
+        } else {
+            w = a.f[t] * b.s[t];
+            l = b.f[t] * a.s[t];
+            ti = a.f[t] * b.f[t];
+        }
+        r.win += w;
+        r.loss += l;
+        r.tie += ti;
+        r.rounds += static_cast<long double>(t) * (w + l + ti);
+    }
+    return r;
+}
+
+// The rest of the race after H rounds, from the pair programme on the zones.
+Sums closure(const Chain& ca, const Chain& cb, const Trace& a, const Trace& b, int horizon, bool a_first,
+             long double& rounding) {
+    Sums r;
+    const int n = ca.length;
+    const long double t0 = horizon;
+    if (a.lo < n && b.lo < n) {
+        PairTable pt = pair_programme(ca, cb, a.lo, b.lo, a_first);
+        rounding += pt.relative_rounding;
+        for (int i = a.lo; i <= a.hi; ++i) {
+            if (a.v[i] == 0) continue;
+            long double w = 0, l = 0, ti = 0, e = 0;
+            for (int j = b.lo; j <= b.hi; ++j) {
+                if (b.v[j] == 0) continue;
+                const PairValue& c = pt.at(i, j);
+                w += b.v[j] * c.win;
+                l += b.v[j] * c.loss;
+                ti += b.v[j] * c.tie;
+                e += b.v[j] * (c.rounds + t0 * (c.win + c.loss + c.tie));
+            }
+            r.win += a.v[i] * w;
+            r.loss += a.v[i] * l;
+            r.tie += a.v[i] * ti;
+            r.rounds += a.v[i] * e;
+        }
+    }
+    // One piece stuck for good: the other wins exactly when it finishes.
+    auto lone = [&](const Trace& x, long double& fin, long double& time) {
+        for (int i = x.lo; i <= x.hi; ++i) {
+            fin += x.v[i] * x.absorption.h[i];
+            time += x.v[i] * (x.absorption.g[i] + t0 * x.absorption.h[i]);
+        }
+    };
+    long double fa = 0, ta = 0, fb = 0, tb = 0;
+    if (a.lo < n) lone(a, fa, ta);
+    if (b.lo < n) lone(b, fb, tb);
+    r.win += b.stuck * fa;
+    r.loss += a.stuck * fb;
+    r.rounds += b.stuck * ta + a.stuck * tb;
+    const int m = std::max(ca.max_move, cb.max_move);
+    rounding += static_cast<long double>(2 * n + 2) * gamma_ld(m + 4) +
+                gamma_ld((a.hi - a.lo + 1) + (b.hi - b.lo + 1) + 2 * horizon + 8);
+    return r;
+}
+
+DuelResult make_result(const Sums& s, long double bound, const std::string& method) {
+    DuelResult d;
+    d.p_a_wins = s.win;
+    d.p_b_wins = s.loss;
+    d.p_tie = s.tie;
+    d.p_neither = std::max(0.0L, 1.0L - s.win - s.loss - s.tie);
+    d.bound = bound;
+    d.method = method;
+    long double f = s.win + s.loss + s.tie;
+    d.mean_rounds = f > 0 ? static_cast<double>(s.rounds / f) : std::nan("");
+    d.median_resolved = false;  // not computed for matrices
+    return d;
+}
+
+}  // namespace
+
+std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order order, const DuelSettings& s,
+                                    int threads) {
+    const std::size_t n = chains.size();
+    std::vector<DuelResult> out(n * n);
+    if (n == 0) return out;
+    for (const auto& c : chains)
+        if (c.length != chains.front().length) throw InternalError("duel_matrix: chains on different boards");
+    // Forced methods, medians, and seat-dependent orders go pair by pair.
+    if (s.method != DuelMethod::automatic || s.want_median) {
+        std::vector<std::pair<std::size_t, std::size_t>> jobs;
+        for (std::size_t i = 0; i < n; ++i)
+            for (std::size_t j = 0; j < n; ++j) jobs.emplace_back(i, j);
+        parallel_for(jobs.size(), threads, [&](std::size_t k) {
+            auto [i, j] = jobs[k];
+            out[i * n + j] = duel(chains[i], chains[j], order, s);
+        });
+        return out;
+    }
+    const bool forward = chains.front().forward_only;
+    // Zones this narrow make the pair programme cheaper than more turns.
+    const int narrow = 12;
+    const std::uint64_t budget = forward ? 2'000'000 : s.work_limit / std::max<std::size_t>(n, 1);
+    const int cap = forward ? kMaxHorizon : 1 << 24;
+    std::vector<Tracer> tracers;
+    tracers.reserve(n);
+    for (const auto& c : chains) tracers.emplace_back(c, forward);
+    parallel_for(n, threads, [&](std::size_t i) { tracers[i].run_to_stop(narrow, budget, cap); });
+    int horizon = 0;
+    if (forward) {
+        horizon = choose_horizon(tracers, chains);
+    } else {
+        for (const auto& t : tracers) horizon = std::max(horizon, t.turn());
+    }
+    limits::check_memory(static_cast<std::uint64_t>(horizon + 1) * n * 2 * sizeof(long double) +
+                             static_cast<std::uint64_t>(chains.front().length) * n * 64,
+                         "the series of every option of this tournament");
+    std::vector<Trace> traces(n);
+    parallel_for(n, threads, [&](std::size_t i) { traces[i] = tracers[i].finish(horizon); });
+    if (std::getenv("OVERSHOOT_DEBUG_MATRIX")) {
+        std::fprintf(stderr, "horizon %d\n", horizon);
+        for (std::size_t i = 0; i < n; ++i)
+            std::fprintf(stderr, "  %zu zone %d alive %Lg\n", i, chains[i].length - traces[i].lo, traces[i].alive);
+    }
+
+    std::vector<std::pair<std::size_t, std::size_t>> jobs;
+    for (std::size_t i = 0; i < n; ++i)
+        for (std::size_t j = i; j < n; ++j) jobs.emplace_back(i, j);
+    parallel_for(jobs.size(), threads, [&](std::size_t k) {
+        auto [i, j] = jobs[k];
+        const Trace &a = traces[i], &b = traces[j];
+        const Chain &ca = chains[i], &cb = chains[j];
+        long double base = a.rounding + b.rounding + gamma_ld(2 * horizon + 8);
+        if (!forward) base += a.alive + b.alive;  // unresolved mass bounds every outcome
+        auto one = [&](bool a_first, const Trace& x, const Trace& y, const Chain& cx, const Chain& cy,
+                       long double& bound) {
+            Sums p = prefix(x, y, horizon, a_first);
+            bound = base;
+            if (forward) {
+                Sums c = closure(cx, cy, x, y, horizon, a_first, bound);
+                p.win += c.win;
+                p.loss += c.loss;
+                p.tie += c.tie;
+                p.rounds += c.rounds;
+            }
+            return p;
+        };
+        const std::string method = forward ? "zone" : "series";
+        auto flip = [](Sums x) {
+            std::swap(x.win, x.loss);
+            return x;
+        };
+        switch (order) {
+            case Order::simultaneous: {
+                long double bound;
+                Sums r = one(false, a, b, ca, cb, bound);
+                out[i * n + j] = make_result(r, bound, method);
+                out[j * n + i] = make_result(flip(r), bound, method);
+                break;
+            }
+            case Order::a_first:
+            case Order::b_first:
+            case Order::coin: {
+                long double b1, b2;
+                Sums x = one(true, a, b, ca, cb, b1);  // i moves first
+                Sums y = one(true, b, a, cb, ca, b2);  // j moves first
+                if (order == Order::coin) {
+                    Sums m{(x.win + y.loss) / 2, (x.loss + y.win) / 2, 0, (x.rounds + y.rounds) / 2};
+                    long double bound = std::max(b1, b2) + gamma_ld(2);
+                    out[i * n + j] = make_result(m, bound, method);
+                    out[j * n + i] = make_result(flip(m), bound, method);
+                } else {
+                    // a-first: the row option sits in seat A and moves first.
+                    Sums ij = order == Order::a_first ? x : flip(y);
+                    Sums ji = order == Order::a_first ? y : flip(x);
+                    out[i * n + j] = make_result(ij, order == Order::a_first ? b1 : b2, method);
+                    out[j * n + i] = make_result(ji, order == Order::a_first ? b2 : b1, method);
+                }
+                break;
+            }
+        }
+    });
+    return out;
+}
+
+}  // namespace overshoot
