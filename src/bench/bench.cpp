@@ -9,6 +9,7 @@
 #include "chain/profile.hpp"
 #include "core/option.hpp"
 #include "race/duel.hpp"
+#include "race/multi.hpp"
 
 namespace overshoot {
 
@@ -58,6 +59,15 @@ BenchReport run_bench() {
         Chain ca = build_chain(board, parse_option("1d6"));
         Chain cb = build_chain(board, parse_option("2d6"));
         return duel_digest(duel(ca, cb, Order::a_first));
+    });
+    timed("race 1d6 2d6 3d6 4d6 on 1000", [&] {
+        Board board = make_board(1000, Overshoot::stay, {});
+        std::vector<Chain> cs;
+        for (const char* s : {"1d6", "2d6", "3d6", "4d6"}) cs.push_back(build_chain(board, parse_option(s)));
+        RaceResult r = race({&cs[0], &cs[1], &cs[2], &cs[3]}, {}, RaceOrder::simultaneous);
+        std::string out;
+        for (long double p : r.p_wins) out += digits(static_cast<double>(p)) + " ";
+        return out + digits(static_cast<double>(r.p_tie));
     });
     timed("profile 1d6..6d6 on 10000", [&] {
         Board board = make_board(10000, Overshoot::stay, {});

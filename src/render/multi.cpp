@@ -41,7 +41,7 @@ std::vector<std::string> picked_names(const std::vector<Option>& options, const 
 
 std::string bound_note(const RaceResult& r) {
     return fmt::format("error bound on each probability: {:.2g} (proven{}, method {})", d(r.bound),
-                       r.target_met ? "" : "; the target 1e-12 was not reached within the work limit", r.method);
+                       r.target_met ? "" : "; ABOVE the wanted 1e-12: the work limit or the accumulated rounding stopped it", r.method);
 }
 
 // The shared first finishes, largest first: "1d6 & 2d6".
