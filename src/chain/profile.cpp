@@ -38,12 +38,23 @@ Moments solve_moments(const Chain& c) {
     Eigen::SparseMatrix<double> a(live, live);
     a.setFromTriplets(trip.begin(), trip.end());
     a.makeCompressed();
-    Eigen::SparseLU<Eigen::SparseMatrix<double>, Eigen::COLAMDOrdering<int>> lu;
-    lu.compute(a);
-    if (lu.info() != Eigen::Success) throw InternalError("sparse LU of the absorbing chain failed");
-    Eigen::VectorXd h = lu.solve(r);
-    Eigen::VectorXd g = lu.solve(h);
-    Eigen::VectorXd k = lu.solve(2.0 * g - h);
+    Eigen::VectorXd h, g, k;
+    auto solve_with = [&](auto& lu) {
+        lu.compute(a);
+        if (lu.info() != Eigen::Success) throw InternalError("sparse LU of the absorbing chain failed");
+        h = lu.solve(r);
+        g = lu.solve(h);
+        k = lu.solve(2.0 * g - h);
+    };
+    if (c.forward_only) {
+        // Upper triangular already: the natural order has no fill, and the
+        // fill-reducing analysis would cost more than the factorisation.
+        Eigen::SparseLU<Eigen::SparseMatrix<double>, Eigen::NaturalOrdering<int>> lu;
+        solve_with(lu);
+    } else {
+        Eigen::SparseLU<Eigen::SparseMatrix<double>, Eigen::COLAMDOrdering<int>> lu;
+        solve_with(lu);
+    }
     m.residual = std::max({(a * h - r).lpNorm<Eigen::Infinity>(), (a * g - h).lpNorm<Eigen::Infinity>() /
                                                                        std::max(1.0, g.lpNorm<Eigen::Infinity>())});
     for (int s = 0; s < n; ++s) {
