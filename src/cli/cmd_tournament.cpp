@@ -1,0 +1,116 @@
+// overshoot tournament SPEC...: every option against every other on one board
+// (or a win matrix from a CSV file), with the dominance digraph, its cycles,
+// counters and the equilibrium mix.
+#include <fmt/format.h>
+
+#include <memory>
+#include <optional>
+
+#include "cli/common.hpp"
+#include "cli/registry.hpp"
+#include "core/error.hpp"
+#include "core/io.hpp"
+#include "race/duel.hpp"
+#include "render/tournament.hpp"
+#include "tournament/matrix_csv.hpp"
+#include "tournament/tournament.hpp"
+
+namespace overshoot::cli {
+namespace {
+
+struct TournamentArgs {
+    BoardFlags board;
+    std::vector<std::string> specs;
+    std::optional<std::string> matrix;
+    std::optional<double> tolerance;
+    int max_cycle_length = 6;
+    long long cycle_cap = 10'000;
+    std::optional<std::string> format;
+    std::optional<std::string> output;
+    std::string method = "auto";
+    int threads = 0;
+};
+
+void run(const TournamentArgs& a) {
+    std::string format = a.format.value_or(a.board.json ? "json" : "text");
+    if (a.board.json && format != "json") throw InputError("give either --json or --format, not both");
+    if (format != "text" && format != "json" && format != "md" && format != "latex" && format != "csv" && format != "dot")
+        throw InputError(fmt::format("unknown --format '{}': use text, json, md, latex, csv or dot", format));
+    if (a.cycle_cap < 0) throw InputError("--cycle-cap must be 0 or more");
+    if (a.threads < 0) throw InputError("--threads must be 0 (all cores) or more");
+    TournamentSettings settings;
+    settings.max_cycle_length = a.max_cycle_length;
+    settings.cycle_cap = static_cast<std::size_t>(a.cycle_cap);
+
+    render::TournamentSource src;
+    PairwiseMatrix matrix;
+    if (a.matrix) {
+        // The file replaces the races: board flags and options would be ignored, so refuse them.
+        if (!a.specs.empty()) throw InputError("--matrix takes the options from the file; drop the option specs");
+        const BoardFlags& f = a.board;
+        if (f.length || f.overshoot || (f.jump_option && f.jump_option->count() > 0) || f.order || f.scenario)
+            throw InputError("--matrix replaces the races: --length, --overshoot, --jump, --order and --scenario do not apply");
+        src.matrix_file = *a.matrix;
+        src.tolerance = a.tolerance.value_or(0.0);
+        matrix = read_matrix_csv(*a.matrix, src.tolerance);
+    } else {
+        if (a.tolerance)
+            throw InputError("--tolerance applies to --matrix only; races carry their own proven error bounds");
+        Setup s = resolve_setup(a.board, a.specs, 1, 100'000);
+        DuelSettings ds;
+        ds.method = parse_duel_method(a.method);
+        // ds.want_median = false;
+        matrix = race_matrix(s.board, s.order, s.options, ds, a.threads);
+        src.board = s.board;
+        src.order = s.order;
+        src.options = s.options;
+    }
+    Tournament t = analyse(std::move(matrix), settings);
+
+    std::string out;
+    if (format == "json")
+        out = render::tournament_json(t, src).dump(2) + "\n";
+    else if (format == "md")
+        out = render::tournament_markdown(t, src);
+    else if (format == "latex")
+        out = render::tournament_latex(t, src);
+    else if (format == "csv")
+        out = render::tournament_csv(t);
+    else if (format == "dot")
+        out = render::tournament_dot(t, src);
+    else
+        out = render::tournament_text(t, src);
+    if (a.output)
+        write_atomically(*a.output, out);
+    else
+        emit(out);
+}
+
+const Registration reg(40, [](CLI::App& app) {
+    auto args = std::make_shared<TournamentArgs>();
+    auto* cmd = app.add_subcommand(
+        "tournament", "every option against every other: dominance digraph, cycles, counters, equilibrium mix\n"
+        "usage: overshoot tournament SPEC... [OPTIONS]   (specs or scenario names; default: the scenario's options)");
+    // The option words are taken from the leftovers: a declared positional would let
+    // CLI11 split a custom die "[1,2,6]" into three words.
+    cmd->allow_extras();
+    add_board_flags(*cmd, args->board);
+    cmd->add_option("--matrix", args->matrix, "read P(row beats column) from a CSV file instead of racing (docs/tournament.md)");
+    cmd->add_option("--tolerance", args->tolerance, "with --matrix: the error bound of every margin (default 0)");
+    cmd->add_option("--max-cycle-length", args->max_cycle_length, "longest cycle listed (default 6, at least 3)");
+    cmd->add_option("--cycle-cap", args->cycle_cap, "most cycles listed, strongest first (default 10000)");
+    cmd->add_option("--format", args->format, "text, json, md, latex, csv (the --matrix format) or dot");
+    cmd->add_option("--output", args->output, "write to this file instead of stdout");
+    cmd->add_option("--method", args->method, "duel method: auto, pairs, zone, series or product (docs/method.md)");
+    cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)");
+    cmd->callback([args, cmd] {
+        args->specs = cmd->remaining();
+        for (const auto& w : args->specs)
+            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
+                throw InputError(fmt::format("tournament: unknown flag '{}' (see --help)", w));
+        run(*args);
+    });
+});
+
+}  // namespace
+}  // namespace overshoot::cli
