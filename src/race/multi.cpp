@@ -220,13 +220,14 @@ std::vector<long double> zone_programme(const std::vector<ZoneAxis>& ax, RaceOrd
     }
     // Depth of the programme (hops that change a coordinate) times the rounding
     // of one hop, as for the pair programme (docs/races.md), plus the final sum.
-    int depth = h + 2, widest = 0;
+    // One state's value passes through every axis: at most sum_j (m_j + 4)
+    // roundings plus the outcome products, the division and the stored forms.
+    int depth = h + 2, per_hop = 2 * h + 12;
     for (const auto& a : ax) {
         depth += a.dim;
-        widest = std::max(widest, a.chain->max_move + 1);
+        per_hop += a.chain->max_move + 4;
     }
-    rel_rounding = static_cast<long double>(depth) * gamma_ld(widest + static_cast<double>(nv) + 3 * h + 12) +
-                   gamma_ld(static_cast<double>(states) + h + 2);
+    rel_rounding = static_cast<long double>(depth) * gamma_ld(per_hop) + gamma_ld(static_cast<double>(states) + h + 2);
     return total;
 }
 

@@ -211,10 +211,9 @@ std::string choice_text(const ChoiceView& v) {
         rr.push_back({(*v.options)[p.picks[0]].name, answers, chances});
     }
     out += table({"first pick", "answers", "chances (player 1 / 2 / ...)"}, rr);
-    out += fmt::format("\nthe last to choose does at least as well as the first: {} on the best-play path, {}\n",
-                       c.last_at_least_first_on_path ? "yes" : "no",
-                       c.last_always_at_least_first ? "and after every possible earlier choice"
-                                                    : "but not after every earlier choice");
+    out += fmt::format("\nthe last to choose does at least as well as the first: on the best-play path {}; "
+                       "after every possible sequence of earlier picks {}\n",
+                       c.last_at_least_first_on_path ? "yes" : "no", c.last_always_at_least_first ? "yes" : "no");
     if (!c.counterexample.empty())
         out += "  for example after: " + fmt::format("{}", fmt::join(picked_names(*v.options, c.counterexample), ", ")) + "\n";
     out += fmt::format("{} distinct races, error bound on each chance: {:.2g} (proven)\n", c.races, d(c.bound));
@@ -319,7 +318,7 @@ std::string balance_text(const BalanceView& v) {
         };
         out += "fairest:\n" + list(s.fairest);
         if (s.dominant_before) {
-            out += "fairest among those that end the dominance of " + names[*s.dominant_before] + ":\n";
+            out += "fairest among those after which no option beats every other (" + names[*s.dominant_before] + " did):\n";
             out += s.removing_dominant.empty() ? std::string("  none\n") : list(s.removing_dominant);
         }
         out += fmt::format("largest error bound of any race: {:.2g} (proven)\n", d(s.bound));

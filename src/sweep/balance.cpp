@@ -293,7 +293,7 @@ JumpSearchResult search_jumps(const Board& board, const std::vector<Option>& opt
             out.bound = std::max(out.bound, c.race.bound);
             ++out.tried;
             insert(out.fairest, c);
-            if (out.dominant_before && c.dominant != out.dominant_before) insert(out.removing_dominant, c);
+            if (out.dominant_before && !c.dominant) insert(out.removing_dominant, c);  // nobody dominates any more
         }
     }
     return out;

@@ -66,7 +66,7 @@ struct JumpSearchResult {
     RaceResult base_race;
     std::optional<int> dominant_before;
     std::vector<JumpCandidate> fairest;            // the fairest single jumps, best first
-    std::vector<JumpCandidate> removing_dominant;  // fairest jumps after which dominant_before no longer dominates
+    std::vector<JumpCandidate> removing_dominant;  // fairest jumps after which no option dominates (when one did)
     std::uint64_t tried = 0;                       // valid boards raced
     long double bound = 0;                         // largest race bound seen
 };
