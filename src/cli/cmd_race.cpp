@@ -38,7 +38,7 @@ std::vector<int> parse_starts(const std::vector<std::string>& words, std::size_t
         out.push_back(v);
     }
     if (!out.empty() && out.size() != pieces)
-        throw InputError(fmt::format("--start given {} times for {} pieces: give one per piece, in order", out.size(), pieces));
+        throw InputError(fmt::format("--start is given {} times for {} pieces: give one per piece, in order", out.size(), pieces));
     return out;
 }
 
