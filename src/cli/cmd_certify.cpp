@@ -61,15 +61,23 @@ void run(const CertifyArgs& a) {
 void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind kind) {
     auto args = std::make_shared<CertifyArgs>();
     args->kind = kind;
-    auto* cmd = parent.add_subcommand(name, help);
-    cmd->add_option("specs", args->specs, "option specs or scenario names");
+    auto* cmd = parent.add_subcommand(name, std::string(help) + "\nusage: overshoot certify " + name + " SPEC... [OPTIONS]");
+    // Option words come from the leftovers: a declared positional would let
+    // CLI11 split a custom die "[1,2,6]" into three words.
+    cmd->allow_extras();
     add_board_flags(*cmd, args->board);
     if (kind == ClaimKind::crossover)
         cmd->add_option("--at", args->at, "the length where the preference has changed from LENGTH-1");
     cmd->add_option("-o,--output", args->output, "write the certificate to FILE (atomically) instead of stdout");
     cmd->add_option("--format", args->format, "json (the certificate, default), md or latex (for people)");
     cmd->add_option("--threads", args->threads, "threads to use (default: all cores)");
-    cmd->callback([args] { run(*args); });
+    cmd->callback([args, cmd] {
+        args->specs = cmd->remaining();
+        for (const auto& w : args->specs)
+            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
+                throw InputError(fmt::format("certify: unknown flag '{}' (see --help)", w));
+        run(*args);
+    });
 }
 
 const Registration reg(70, [](CLI::App& app) {
