@@ -177,7 +177,8 @@ TEST_CASE("one fair S-sided die, rule stay: remaining time within S of the finis
 TEST_CASE("moments agree with the fundamental matrix (Kemeny and Snell 1960)", "[chain]") {
     // Absorption probabilities B = N R and expected times t = N 1, with
     // N = (I - Q)^{-1}, dense via Eigen; second moment of the absorption time
-    // (2N - I) t (Kemeny and Snell, Finite Markov Chains, 1960, Thm 3.3.5).
+    // (2N - I) t (Kemeny and Snell, Finite Markov Chains, 1960, ch. III; the
+    // theorem number 3.3.5 is from memory).
     struct Case {
         const char* spec;
         int length;
