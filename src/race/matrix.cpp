@@ -46,6 +46,9 @@ public:
             advance();
         }
     }
+    bool stopped(int narrow, std::uint64_t budget) const {
+        return s_.alive() < kTarget || s_.work() >= budget || (forward_ && c_->length - s_.low() <= narrow);
+    }
     int turn() const { return s_.turn(); }
     // Zone width (squares from the trailing mass to the finish) at turn h,
     // known for h at a checkpoint or past the stop (where it can only shrink).
@@ -130,37 +133,24 @@ private:
     std::vector<Snapshot> checkpoints_;
 };
 
-// Chooses, among the checkpoint turns (powers of two), the horizon with the
-// least estimated work: per pair one pass over the horizon plus the pair
-// programme on the zones left there, plus the series themselves.
-int choose_horizon(const std::vector<Tracer>& tracers, const std::vector<Chain>& chains) {
-    int longest = 0;
-    for (const auto& t : tracers) longest = std::max(longest, t.turn());
+// Estimated work of the whole matrix with horizon h (the tracers have run at
+// least to h or stopped before): the series, a pass over h per pair, and the
+// pair programme on the zones left at h.
+double estimate(const std::vector<Tracer>& tracers, const std::vector<Chain>& chains, int h) {
     const std::size_t n = tracers.size();
-    double best_cost = -1;
-    int best = 0;
-    for (int h = 8;; h *= 2) {
-        const int at = std::min(h, longest);
-        double cost = 0;
-        std::vector<double> zone(n), row(n);
-        for (std::size_t i = 0; i < n; ++i) {
-            int hi = std::min(at, tracers[i].turn());
-            bool exact = hi == at;
-            zone[i] = exact ? tracers[i].zone_at(at) : tracers[i].zone_at(tracers[i].turn());
-            row[i] = std::min<double>(zone[i], chains[i].max_move + 1);
-            cost += static_cast<double>(tracers[i].work_at(hi));
-        }
-        const double pairs = static_cast<double>(n) * static_cast<double>(n + 1) / 2;
-        cost += pairs * at * 6;
-        for (std::size_t i = 0; i < n; ++i)
-            for (std::size_t j = i; j < n; ++j) cost += zone[i] * zone[j] * (row[i] + row[j]) * 4;
-        if (best_cost < 0 || cost < best_cost) {
-            best_cost = cost;
-            best = at;
-        }
-        if (at >= longest) break;
+    double cost = 0;
+    std::vector<double> zone(n), row(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        const int at = std::min(h, tracers[i].turn());
+        zone[i] = tracers[i].zone_at(at);
+        row[i] = std::min<double>(zone[i], chains[i].max_move + 1);
+        cost += static_cast<double>(tracers[i].work_at(at));
     }
-    return best;
+    const double pairs = static_cast<double>(n) * static_cast<double>(n + 1) / 2;
+    cost += pairs * h * 4;
+    for (std::size_t i = 0; i < n; ++i)
+        for (std::size_t j = i; j < n; ++j) cost += zone[i] * zone[j] * (row[i] + row[j]) * 1.5;
+    return cost;
 }
 
 struct Sums {
@@ -183,7 +173,6 @@ Sums prefix(const Trace& a, const Trace& b, int horizon, bool a_first) {
         r.win += w;
         r.loss += l;
         r.tie += ti;
-        r.rounds += static_cast<long double>(t) * (w + l + ti);
     }
     return r;
 }
@@ -195,23 +184,43 @@ Sums closure(const Chain& ca, const Chain& cb, const Trace& a, const Trace& b, i
     const int n = ca.length;
     const long double t0 = horizon;
     if (a.lo < n && b.lo < n) {
-        PairTable pt = pair_programme(ca, cb, a.lo, b.lo, a_first);
-        rounding += pt.relative_rounding;
-        for (int i = a.lo; i <= a.hi; ++i) {
-            if (a.v[i] == 0) continue;
-            long double w = 0, l = 0, ti = 0, e = 0;
-            for (int j = b.lo; j <= b.hi; ++j) {
-                if (b.v[j] == 0) continue;
-                const PairValue& c = pt.at(i, j);
-                w += b.v[j] * c.win;
-                l += b.v[j] * c.loss;
-                ti += b.v[j] * c.tie;
-                e += b.v[j] * (c.rounds + t0 * (c.win + c.loss + c.tie));
+        if (outcome_programme_bound(ca, cb, a.lo, b.lo) <= 5e-14L) {
+            OutcomeTable ot = outcome_programme(ca, cb, a.lo, b.lo, a_first);
+            rounding += ot.relative_rounding;
+            for (int i = a.lo; i <= a.hi; ++i) {
+                if (a.v[i] == 0) continue;
+                long double w = 0, l = 0, ti = 0;
+                for (int j = b.lo; j <= b.hi; ++j) {
+                    if (b.v[j] == 0) continue;
+                    const std::size_t k = ot.index(i, j);
+                    w += b.v[j] * ot.win[k];
+                    l += b.v[j] * ot.loss[k];
+                    ti += b.v[j] * ot.tie[k];
+                }
+                r.win += a.v[i] * w;
+                r.loss += a.v[i] * l;
+                r.tie += a.v[i] * ti;
             }
-            r.win += a.v[i] * w;
-            r.loss += a.v[i] * l;
-            r.tie += a.v[i] * ti;
-            r.rounds += a.v[i] * e;
+            r.rounds = std::nanl("");
+        } else {
+            PairTable pt = pair_programme(ca, cb, a.lo, b.lo, a_first);
+            rounding += pt.relative_rounding;
+            for (int i = a.lo; i <= a.hi; ++i) {
+                if (a.v[i] == 0) continue;
+                long double w = 0, l = 0, ti = 0, e = 0;
+                for (int j = b.lo; j <= b.hi; ++j) {
+                    if (b.v[j] == 0) continue;
+                    const PairValue& c = pt.at(i, j);
+                    w += b.v[j] * c.win;
+                    l += b.v[j] * c.loss;
+                    ti += b.v[j] * c.tie;
+                    e += b.v[j] * (c.rounds + t0 * (c.win + c.loss + c.tie));
+                }
+                r.win += a.v[i] * w;
+                r.loss += a.v[i] * l;
+                r.tie += a.v[i] * ti;
+                r.rounds += a.v[i] * e;
+            }
         }
     }
     // One piece stuck for good: the other wins exactly when it finishes.
@@ -241,9 +250,9 @@ DuelResult make_result(const Sums& s, long double bound, const std::string& meth
     d.p_neither = std::max(0.0L, 1.0L - s.win - s.loss - s.tie);
     d.bound = bound;
     d.method = method;
-    long double f = s.win + s.loss + s.tie;
-    d.mean_rounds = f > 0 ? static_cast<double>(s.rounds / f) : std::nan("");
-    d.median_resolved = false;  // not computed for matrices
+    // Race lengths are not computed for matrices (duel() gives them).
+    d.mean_rounds = std::nan("");
+    d.median_resolved = false;
     return d;
 }
 
@@ -275,11 +284,28 @@ std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order orde
     std::vector<Tracer> tracers;
     tracers.reserve(n);
     for (const auto& c : chains) tracers.emplace_back(c, forward);
-    parallel_for(n, threads, [&](std::size_t i) { tracers[i].run_to_stop(narrow, budget, cap); });
     int horizon = 0;
     if (forward) {
-        horizon = choose_horizon(tracers, chains);
+        // Double the horizon while it pays: each doubling costs series work and
+        // longer per-pair passes, and buys narrower zones for the pair programme.
+        double best_cost = -1;
+        for (int h = 8; h <= cap; h *= 2) {
+            parallel_for(n, threads, [&](std::size_t i) { tracers[i].run_to_stop(narrow, budget, h); });
+            double cost = estimate(tracers, chains, h);
+            if (best_cost < 0 || cost < best_cost) {
+                best_cost = cost;
+                horizon = h;
+            }
+            bool all_stopped = true;
+            for (const auto& t : tracers) all_stopped = all_stopped && t.stopped(narrow, budget);
+            if (all_stopped || cost > 1.5 * best_cost) break;
+        }
+        // Nothing gained past the last turn any tracer reached.
+        int longest = 0;
+        for (const auto& t : tracers) longest = std::max(longest, t.turn());
+        horizon = std::min(horizon, longest);
     } else {
+        parallel_for(n, threads, [&](std::size_t i) { tracers[i].run_to_stop(narrow, budget, cap); });
         for (const auto& t : tracers) horizon = std::max(horizon, t.turn());
     }
     limits::check_memory(static_cast<std::uint64_t>(horizon + 1) * n * 2 * sizeof(long double) +

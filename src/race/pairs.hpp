@@ -32,3 +32,22 @@ PairTable pair_programme(const Chain& a, const Chain& b, int za, int zb, bool a_
 std::uint64_t pair_programme_memory(int n, int za, int zb);
 
 }  // namespace overshoot
+
+namespace overshoot {
+
+// The same programme for the three outcome probabilities only, in double
+// precision with one array per outcome (vectorises), for tournaments where a
+// pair's zones are small enough that double's rounding bound stays tiny.
+struct OutcomeTable {
+    int za = 0, zb = 0, n = 0;
+    std::vector<double> win, loss, tie;  // (a - za) * (n - zb) + (b - zb)
+    long double relative_rounding = 0;
+    std::size_t index(int a, int b) const { return static_cast<std::size_t>(a - za) * (n - zb) + (b - zb); }
+};
+
+OutcomeTable outcome_programme(const Chain& a, const Chain& b, int za, int zb, bool a_first);
+
+// The rounding bound outcome_programme would prove for these zones.
+long double outcome_programme_bound(const Chain& a, const Chain& b, int za, int zb);
+
+}  // namespace overshoot
