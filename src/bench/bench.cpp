@@ -9,6 +9,7 @@
 #include "chain/profile.hpp"
 #include "core/option.hpp"
 #include "race/duel.hpp"
+#include "race/exact.hpp"
 #include "race/multi.hpp"
 
 namespace overshoot {
@@ -78,6 +79,14 @@ BenchReport run_bench() {
             out += digits(p.p_finish) + " " + digits(p.mean_turns_given_finish) + " ";
         }
         return out;
+    });
+    timed("exact duel 2d6 3d6 on 200", [&] {
+        Board board = make_board(200, Overshoot::stay, {});
+        ExactDuel e = exact_duel(build_chain(board, parse_option("2d6")), build_chain(board, parse_option("3d6")),
+                                 Order::simultaneous);
+        // The fractions run to hundreds of digits: digest them, keep the decimals readable.
+        return fmt::format("{} {:016x}", decimal_string(e.p_a_wins, 12),
+                           fnv1a(1469598103934665603ULL, fraction_string(e.p_a_wins) + fraction_string(e.p_tie)));
     });
     return rep;
 }
