@@ -310,6 +310,12 @@ TEST_CASE("bad scenario: length 0 or beyond the maximum, malformed TOML", "[core
     CHECK_THROWS_AS(parse_scenario("[board]\nlength = 1000001\n", "l.toml"), InputError);
     CHECK_THAT(input_error([] { parse_scenario("[board\nlength = 3\n", "l.toml"); }), Catch::Contains("l.toml:1"));
     CHECK_THAT(input_error([] { load_scenario("/nonexistent/dir/none.toml"); }), Catch::Contains("cannot open"));
+    CHECK_THAT(input_error([] { load_scenario(OVERSHOOT_DATA_DIR); }), Catch::Contains("folder"));
+}
+
+TEST_CASE("bad scenario: an empty option name", "[core]") {
+    CHECK_THAT(input_error([] { parse_scenario("[options]\n\"\" = \"1d6\"\n", "e.toml"); }),
+               Catch::Contains("e.toml:2") && Catch::Contains("empty"));
 }
 
 TEST_CASE("bundled example scenarios load and make valid boards", "[core]") {

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <filesystem>
 #include <fstream>
 #include <set>
 #include <sstream>
@@ -101,6 +102,9 @@ Scenario parse_scenario(std::string_view text, const std::string& source) {
         std::vector<std::pair<toml::source_position, NamedSpec>> found;
         for (auto&& [k, v] : o) {
             std::string key(k.str());
+            // An empty name would print as a blank column and match no word.
+            if (key.empty())
+                throw InputError(fmt::format("{}: an option name in [options] must not be empty", where(source, v)));
             found.push_back({v.source().begin, NamedSpec{key, as_string(source, v, key)}});
         }
         // toml++ keeps keys sorted; the input order is the file order.
@@ -113,6 +117,10 @@ Scenario parse_scenario(std::string_view text, const std::string& source) {
 }
 
 Scenario load_scenario(const std::string& path) {
+    // A folder opens as a stream but reads as empty: say what it is instead.
+    std::error_code ec;
+    if (std::filesystem::is_directory(path, ec))
+        throw InputError(fmt::format("{}: is a folder, not a scenario file", path));
     std::ifstream in(path, std::ios::binary);
     if (!in) throw InputError(fmt::format("{}: cannot open the scenario file", path));
     std::ostringstream ss;
