@@ -283,6 +283,13 @@ def main():
             checked += 1
             if abs(got[key] - float(value)) > TOLERANCE:
                 failures.append(f"{where}: {key} = {got[key]!r}, exact {value} = {float(value)!r}")
+            # A proven bound must hold: the error, measured exactly, may exceed
+            # the stated bound only by the rounding to a double (2^-53 relative).
+            error = abs(Fraction(got[key]) - value)
+            allowed = Fraction(got["probability_error_bound"]) + Fraction(got[key]) * Fraction(1, 2**53)
+            if got.get("bound_proven", False) and error > allowed:
+                failures.append(f"{where}: {key} is off by {float(error):.3g}, above its proven bound "
+                                f"{got['probability_error_bound']:.3g}")
         if abs(got["margin"] - float(want[0] - want[1])) > TOLERANCE:
             failures.append(f"{where}: margin {got['margin']!r} vs {float(want[0] - want[1])!r}")
         if got["error_bound"] > TOLERANCE:
