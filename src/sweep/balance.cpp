@@ -4,6 +4,10 @@
 
 #include <algorithm>
 #include <cmath>
+#include <atomic>
+#include <exception>
+#include <mutex>
+#include <thread>
 
 #include "chain/chain.hpp"
 #include "core/error.hpp"
@@ -250,16 +254,15 @@ JumpSearchResult search_jumps(const Board& board, const std::vector<Option>& opt
     keep = std::max(1, keep);
     RaceSettings rs;
     rs.work_limit = 400'000'000ULL;  // per candidate board; an unmet target is flagged in its race
-    auto evaluate = [&](const Board& b, RaceResult& r, std::optional<int>& dom) {
+    JumpSearchResult out;
+    {
         std::vector<Chain> chains;
-        for (const auto& o : options) chains.push_back(build_chain(b, o));
+        for (const auto& o : options) chains.push_back(build_chain(board, o));
         std::vector<const Chain*> ptr;
         for (const auto& c : chains) ptr.push_back(&c);
-        r = race(ptr, {}, order, rs);
-        dom = dominant_option(chains, order);
-    };
-    JumpSearchResult out;
-    evaluate(board, out.base_race, out.dominant_before);
+        out.base_race = race(ptr, {}, order, rs);
+        out.dominant_before = dominant_option(chains, order);
+    }
     out.base_deviation = deviation(out.base_race);
     out.bound = out.base_race.bound;
     auto better = [](const JumpCandidate& a, const JumpCandidate& b) {
@@ -273,6 +276,9 @@ JumpSearchResult search_jumps(const Board& board, const std::vector<Option>& opt
         if (static_cast<int>(list.size()) > keep) list.pop_back();
     };
     const int n = board.length;
+    // Every board with one more jump (a loop of jumps is no board).
+    std::vector<JumpCandidate> cand;
+    std::vector<Board> boards;
     for (int from = 1; from < n; ++from) {
         bool taken = std::any_of(board.jumps.begin(), board.jumps.end(), [&](const Jump& j) { return j.from == from; });
         if (taken) continue;
@@ -280,21 +286,58 @@ JumpSearchResult search_jumps(const Board& board, const std::vector<Option>& opt
             if (to == from) continue;
             std::vector<Jump> js = board.jumps;
             js.push_back({from, to});
-            Board b;
             try {
-                b = make_board(n, board.rule, js);
+                boards.push_back(make_board(n, board.rule, js));
             } catch (const InputError&) {
-                continue;  // a loop of jumps: not a board
+                continue;
             }
             JumpCandidate c;
             c.jump = {from, to};
-            evaluate(b, c.race, c.dominant);
-            c.deviation = deviation(c.race);
-            out.bound = std::max(out.bound, c.race.bound);
-            ++out.tried;
-            insert(out.fairest, c);
-            if (out.dominant_before && !c.dominant) insert(out.removing_dominant, c);  // nobody dominates any more
+            cand.push_back(c);
         }
+    }
+    // The races, on every core; each result lands in its own slot, so the
+    // output is the same whatever the thread count.
+    std::atomic<std::size_t> next{0};
+    std::exception_ptr failure;
+    std::mutex failure_mutex;
+    auto work = [&] {
+        try {
+            for (std::size_t i; (i = next.fetch_add(1)) < cand.size();) {
+                std::vector<Chain> chains;
+                for (const auto& o : options) chains.push_back(build_chain(boards[i], o));
+                std::vector<const Chain*> ptr;
+                for (const auto& c : chains) ptr.push_back(&c);
+                cand[i].race = race(ptr, {}, order, rs);
+                cand[i].deviation = deviation(cand[i].race);
+            }
+        } catch (...) {
+            std::lock_guard<std::mutex> lock(failure_mutex);
+            if (!failure) failure = std::current_exception();
+            next.store(cand.size());
+        }
+    };
+    const int threads = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+    std::vector<std::thread> pool;
+    for (int t = 1; t < threads; ++t) pool.emplace_back(work);
+    work();
+    for (auto& t : pool) t.join();
+    if (failure) std::rethrow_exception(failure);
+    // Then in board order: the duels behind `dominant` only for a board that
+    // can still enter one of the two kept lists.
+    for (std::size_t i = 0; i < cand.size(); ++i) {
+        JumpCandidate& c = cand[i];
+        out.bound = std::max(out.bound, c.race.bound);
+        ++out.tried;
+        auto open = [&](const std::vector<JumpCandidate>& list) {
+            return static_cast<int>(list.size()) < keep || c.deviation <= list.back().deviation;
+        };
+        if (!open(out.fairest) && !(out.dominant_before && open(out.removing_dominant))) continue;
+        std::vector<Chain> chains;
+        for (const auto& o : options) chains.push_back(build_chain(boards[i], o));
+        c.dominant = dominant_option(chains, order);
+        insert(out.fairest, c);
+        if (out.dominant_before && !c.dominant) insert(out.removing_dominant, c);  // nobody dominates any more
     }
     return out;
 }

@@ -1,0 +1,285 @@
+#include "render/sweep.hpp"
+
+#include <fmt/format.h>
+
+#include <cmath>
+
+#include "render/format.hpp"
+#include "render/race.hpp"
+#include "render/tournament.hpp"
+
+namespace overshoot::render {
+
+namespace {
+
+using nlohmann::json;
+
+std::string runs_text(const std::vector<std::pair<int, int>>& runs) {
+    std::string out;
+    for (std::size_t i = 0; i < runs.size(); ++i) {
+        if (i > 0) out += ", ";
+        out += runs[i].first == runs[i].second ? fmt::format("{}", runs[i].first)
+                                               : fmt::format("{}..{}", runs[i].first, runs[i].second);
+    }
+    return out.empty() ? "none" : out;
+}
+
+json runs_json(const std::vector<std::pair<int, int>>& runs) {
+    json a = json::array();
+    for (auto [lo, hi] : runs) a.push_back({lo, hi});
+    return a;
+}
+
+json names_json(const std::vector<Option>& opts, const std::vector<std::size_t>& idx) {
+    json a = json::array();
+    for (std::size_t i : idx) a.push_back(opts[i].name);
+    return a;
+}
+
+std::string cycle_text(const std::vector<Option>& opts, const std::vector<std::size_t>& idx) {
+    std::string s;
+    for (std::size_t i : idx) s += opts[i].name + " > ";
+    return s + opts[idx.front()].name;
+}
+
+std::string variant_text(const Variant& v) {
+    return fmt::format("overshoot {}, {} turns", to_string(v.rule), to_string(v.order));
+}
+
+std::string grid_text(const LengthGrid& g) {
+    return g.step == 1 ? fmt::format("lengths {}..{}", g.lo, g.hi)
+                       : fmt::format("lengths {}..{} step {}", g.lo, g.hi, g.step);
+}
+
+std::string jumps_text(const SweepResult& r) {
+    if (r.jumps.empty()) return "no jumps";
+    std::string s = "jumps";
+    for (const Jump& j : r.jumps) s += fmt::format(" {}:{}", j.from, j.to);
+    s += r.anchor == JumpAnchor::start ? " (anchored to the start)"
+                                       : fmt::format(" (anchored to the finish of length {})", r.grid.hi);
+    return s;
+}
+
+}  // namespace
+
+std::string sweep_text(const SweepResult& r) {
+    std::string out = fmt::format("sweep of {} options over {}, {}\n", r.options.size(), grid_text(r.grid), jumps_text(r));
+    for (const auto& vs : r.variants) {
+        out += fmt::format("\n{}\n", variant_text(vs.variant));
+        std::string methods;
+        for (const auto& p : vs.pairs)
+            methods += fmt::format("{}{} vs {}: {}", methods.empty() ? "" : "; ", r.options[p.a].name,
+                                   r.options[p.b].name, p.method);
+        out += fmt::format("  method: {}\n", methods);
+        if (vs.crossovers.empty()) {
+            out += "  crossovers: none\n";
+        } else {
+            out += "  crossovers:\n";
+            for (const auto& c : vs.crossovers) {
+                const std::string where =
+                    c.length() ? fmt::format("at {}", *c.length())
+                               : fmt::format("between {} and {}", c.before + 1, c.after);
+                out += fmt::format("    {} vs {}: {} (preferred {} up to {}, margin {}; {} from {}, margin {})",
+                                   r.options[c.a].name, r.options[c.b].name, where,
+                                   r.options[c.preferred_before].name, c.before, points(std::fabs(c.margin_before)),
+                                   r.options[c.preferred_after].name, c.after, points(std::fabs(c.margin_after)));
+                if (!c.undecided.empty()) {
+                    std::string u;
+                    for (int l : c.undecided) u += fmt::format("{}{}", u.empty() ? "" : ", ", l);
+                    out += fmt::format("; undecided at {}", u);
+                }
+                out += "\n";
+            }
+        }
+        if (vs.cycles.empty()) {
+            out += "  cycles: none\n";
+        } else {
+            out += "  cycles:\n";
+            for (const auto& c : vs.cycles)
+                out += fmt::format("    {}: lengths {}; strength {} at {}, weakest {}\n", cycle_text(r.options, c.options),
+                                   runs_text(c.intervals), points(c.strongest), c.strongest_length,
+                                   points(c.weakest));
+            if (vs.cycles_cap_hit) out += "    (the cycle cap cut some lists)\n";
+        }
+        out += fmt::format("  no Condorcet winner at: {}\n", runs_text(vs.no_dominant));
+        if (vs.per_length.size() <= 40) {
+            out += "  per length:\n";
+            for (const auto& s : vs.per_length) {
+                std::string w = s.condorcet_winner ? "winner " + r.options[*s.condorcet_winner].name
+                                                   : "top cycle {" + [&] {
+                                                         std::string t;
+                                                         for (std::size_t i : s.top_cycle)
+                                                             t += (t.empty() ? "" : ", ") + r.options[i].name;
+                                                         return t;
+                                                     }() + "}";
+                out += fmt::format("    {}: {}, {} arcs, {} undecided, {} cycles\n", s.length, w, s.arcs.size(),
+                                   s.undecided.size(), s.cycles.size());
+            }
+        }
+    }
+    return out;
+}
+
+json sweep_json(const SweepResult& r) {
+    json j = document("sweep", 1);
+    json opts = json::array();
+    for (const auto& o : r.options) opts.push_back({{"name", o.name}, {"spec", o.spec}});
+    j["options"] = opts;
+    j["lengths"] = {{"lo", r.grid.lo}, {"hi", r.grid.hi}, {"step", r.grid.step}};
+    json jumps = json::array();
+    for (const Jump& jp : r.jumps) jumps.push_back({jp.from, jp.to});
+    j["jumps"] = jumps;
+    j["anchor"] = r.anchor == JumpAnchor::start ? "start" : "finish";
+    json variants = json::array(), per = json::array(), cross = json::array(), cycles = json::array(),
+         nodom = json::array();
+    for (const auto& vs : r.variants) {
+        const std::string rule(to_string(vs.variant.rule)), order(to_string(vs.variant.order));
+        json methods = json::array();
+        for (const auto& p : vs.pairs)
+            methods.push_back({{"a", r.options[p.a].name}, {"b", r.options[p.b].name}, {"method", p.method}});
+        variants.push_back({{"overshoot", rule}, {"order", order}, {"methods", methods},
+                            {"no_condorcet_winner", runs_json(vs.no_dominant)},
+                            {"cycle_cap_hit", vs.cycles_cap_hit}});
+        for (const auto& s : vs.per_length) {
+            json arcs = json::array();
+            for (const Arc& a : s.arcs)
+                arcs.push_back({{"from", r.options[a.from].name}, {"to", r.options[a.to].name}, {"margin", a.margin},
+                                {"error_bound", a.bound}});
+            json und = json::array();
+            for (auto [a, b] : s.undecided) und.push_back({r.options[a].name, r.options[b].name});
+            json cyc = json::array();
+            for (const Cycle& c : s.cycles) cyc.push_back({{"options", names_json(r.options, c.options)}, {"strength", c.strength}});
+            per.push_back({{"overshoot", rule},
+                           {"order", order},
+                           {"length", s.length},
+                           {"arcs", arcs},
+                           {"undecided", und},
+                           {"condorcet_winner", s.condorcet_winner ? json(r.options[*s.condorcet_winner].name) : json(nullptr)},
+                           {"top_cycle", names_json(r.options, s.top_cycle)},
+                           {"cycles", cyc}});
+        }
+        for (const auto& c : vs.crossovers) {
+            json und = json::array();
+            for (int l : c.undecided) und.push_back(l);
+            cross.push_back({{"overshoot", rule},
+                             {"order", order},
+                             {"a", r.options[c.a].name},
+                             {"b", r.options[c.b].name},
+                             {"length", c.length() ? json(*c.length()) : json(nullptr)},
+                             {"interval", {c.before + 1, c.after}},
+                             {"last_before", c.before},
+                             {"first_after", c.after},
+                             {"undecided_lengths", und},
+                             {"preferred_before", r.options[c.preferred_before].name},
+                             {"preferred_after", r.options[c.preferred_after].name},
+                             {"margin_before", c.margin_before},
+                             {"error_bound_before", c.bound_before},
+                             {"margin_after", c.margin_after},
+                             {"error_bound_after", c.bound_after}});
+        }
+        for (const auto& c : vs.cycles)
+            cycles.push_back({{"overshoot", rule},
+                              {"order", order},
+                              {"options", names_json(r.options, c.options)},
+                              {"lengths", runs_json(c.intervals)},
+                              {"weakest_strength", c.weakest},
+                              {"strongest_strength", c.strongest},
+                              {"strongest_length", c.strongest_length},
+                              {"count", c.count}});
+    }
+    j["variants"] = variants;
+    j["per_length"] = per;
+    j["crossovers"] = cross;
+    j["cycles"] = cycles;
+    return j;
+}
+
+std::string sweep_csv(const SweepResult& r) {
+    std::string out = "overshoot,order,length,a,b,p_a_wins,p_b_wins,p_tie,p_neither,margin,error_bound,preferred,method\n";
+    auto quote = [](const std::string& s) {
+        if (s.find_first_of(",\"\n") == std::string::npos) return s;
+        std::string q = "\"";
+        for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
+        return q + "\"";
+    };
+    for (const auto& vs : r.variants)
+        for (std::size_t k = 0; k < vs.lengths.size(); ++k)
+            for (const auto& p : vs.pairs) {
+                const LengthOutcome& o = p.at[k];
+                const double bound = o.error_bound() + 4 * std::ldexp(1.0, -53);
+                const std::string pref = o.margin() > bound ? r.options[p.a].name
+                                         : -o.margin() > bound ? r.options[p.b].name
+                                                               : std::string("undecided");
+                out += fmt::format("{},{},{},{},{},{},{},{},{},{},{},{},{}\n", to_string(vs.variant.rule),
+                                   to_string(vs.variant.order), vs.lengths[k], quote(r.options[p.a].name),
+                                   quote(r.options[p.b].name), number(o.win), number(o.loss), number(o.tie),
+                                   number(o.neither), number(o.margin()), number(bound), quote(pref), p.method);
+            }
+    return out;
+}
+
+std::string hunt_text(const HuntResult& r, const HuntSpec& spec) {
+    std::string out = fmt::format("hunt for {}-cycles among {} options over {}", spec.cycle_length, spec.options.size(),
+                                  grid_text(spec.grid));
+    for (std::size_t v = 0; v < spec.variants.size(); ++v)
+        out += fmt::format("{}{}", v == 0 ? "; " : " | ", variant_text(spec.variants[v]));
+    out += "\n";
+    if (spec.min_strength > 0) out += fmt::format("minimum strength {}\n", points(spec.min_strength));
+    if (spec.required) out += fmt::format("every set contains {}\n", spec.options[*spec.required].name);
+    if (!r.complete)
+        out += fmt::format("INTERRUPTED: {} of {} pairs known; only cycles whose pairs are all known are listed\n",
+                           r.pairs_known, r.pairs_total);
+    out += fmt::format("examined {} lengths and {} option sets; {} cycle instances, {} distinct sets\n",
+                       r.lengths_examined, r.sets_examined, r.cycles_found, r.distinct);
+    if (r.cycles.empty()) {
+        out += "no cycle found\n";
+        return out;
+    }
+    std::vector<std::vector<std::string>> rows;
+    for (std::size_t i = 0; i < r.cycles.size(); ++i) {
+        const HuntCycle& c = r.cycles[i];
+        std::vector<std::string> row{fmt::format("{}", i + 1), cycle_text(spec.options, c.options),
+                                     points(c.strongest), fmt::format("{}", c.strongest_length),
+                                     fmt::format("{}", c.count), runs_text(c.intervals)};
+        if (spec.variants.size() > 1) row.insert(row.begin() + 1, variant_text(spec.variants[c.variant]));
+        rows.push_back(row);
+    }
+    std::vector<std::string> header{"rank", "cycle", "strength", "at length", "lengths held", "where"};
+    if (spec.variants.size() > 1) header.insert(header.begin() + 1, "rules");
+    out += table(header, rows);
+    if (r.distinct > r.cycles.size()) out += fmt::format("({} more sets not listed)\n", r.distinct - r.cycles.size());
+    return out;
+}
+
+json hunt_json(const HuntResult& r, const HuntSpec& spec) {
+    json j = document("hunt", 1);
+    json opts = json::array();
+    for (const auto& o : spec.options) opts.push_back({{"name", o.name}, {"spec", o.spec}});
+    j["options"] = opts;
+    j["lengths"] = {{"lo", spec.grid.lo}, {"hi", spec.grid.hi}, {"step", spec.grid.step}};
+    json vars = json::array();
+    for (const auto& v : spec.variants)
+        vars.push_back({{"overshoot", std::string(to_string(v.rule))}, {"order", std::string(to_string(v.order))}});
+    j["variants"] = vars;
+    j["cycle_length"] = spec.cycle_length;
+    j["min_strength"] = spec.min_strength;
+    j["required"] = spec.required ? json(spec.options[*spec.required].name) : json(nullptr);
+    j["complete"] = r.complete;
+    j["totals"] = {{"pairs", r.pairs_total},          {"pairs_known", r.pairs_known},
+                   {"lengths_examined", r.lengths_examined}, {"sets_examined", r.sets_examined},
+                   {"cycle_instances", r.cycles_found}, {"distinct_sets", r.distinct}};
+    json cyc = json::array();
+    for (const auto& c : r.cycles)
+        cyc.push_back({{"options", names_json(spec.options, c.options)},
+                       {"overshoot", std::string(to_string(spec.variants[c.variant].rule))},
+                       {"order", std::string(to_string(spec.variants[c.variant].order))},
+                       {"strength", c.strongest},
+                       {"strongest_length", c.strongest_length},
+                       {"weakest_strength", c.weakest},
+                       {"lengths", runs_json(c.intervals)},
+                       {"count", c.count}});
+    j["cycles"] = cyc;
+    return j;
+}
+
+}  // namespace overshoot::render
