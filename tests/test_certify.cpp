@@ -173,3 +173,17 @@ TEST_CASE("certificates on boards where pieces move backward use exact eliminati
         CHECK(certified == 1);  // one of the two orientations holds, never both
     }
 }
+
+// Hidden by default (about 20 s of CPU, more on a loaded machine): run with
+//   build/tests/overshoot_tests "[certify-slow]"
+TEST_CASE("the 600-square cycle certificate is reproduced byte for byte", "[.][certify-slow]") {
+    // Fact of the trade, no published source: 2d6 > 1d6 > 3d6 > 2d6 on 600 squares.
+    auto o = opts({"2d6", "1d6", "3d6"});
+    Board b = make_board(600, Overshoot::stay, {});
+    Certificate c = certify(claim_of(ClaimKind::cycle, o), b, Order::simultaneous, o, 2);
+    const std::string text = render::certificate_json(c).dump(1) + "\n";
+    CHECK(text == read_file(std::string(OVERSHOOT_DATA_DIR) + "/../docs/examples/cycle-600.json"));
+    CheckReport r = check_certificate(c, text, 2);
+    INFO(r.failure);
+    CHECK(r.holds);
+}

@@ -177,3 +177,23 @@ TEST_CASE("exact 1d6 against 2d6 on 100 squares agrees with the float engine", "
     CHECK(e.margin() > 0);
     CHECK(decimal_string(e.p_a_wins, 6) == "0.511864");
 }
+
+TEST_CASE("exact matrix of a few options equals the single exact duels", "[exact]") {
+    Board b = make_board(30, Overshoot::stay, {{4, 9}});
+    std::vector<Chain> cs;
+    for (const char* s : {"1d6", "2d6", "1d4+1"}) cs.push_back(build_chain(b, parse_option(s)));
+    for (Order order : {Order::simultaneous, Order::a_first}) {
+        auto m = exact_matrix(cs, order, 2);
+        for (std::size_t i = 0; i < 3; ++i)
+            for (std::size_t j = 0; j < 3; ++j) {
+                if (i == j) {
+                    CHECK_FALSE(m[i * 3 + j].has_value());
+                    continue;
+                }
+                REQUIRE(m[i * 3 + j].has_value());
+                ExactDuel e = exact_duel(cs[i], cs[j], order);
+                CHECK(m[i * 3 + j]->p_a_wins == e.p_a_wins);
+                CHECK(m[i * 3 + j]->p_b_wins == e.p_b_wins);
+            }
+    }
+}

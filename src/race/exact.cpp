@@ -511,6 +511,29 @@ std::vector<ExactDuel> exact_duels(const std::vector<std::pair<const Chain*, con
     return out;
 }
 
+std::vector<std::optional<ExactDuel>> exact_matrix(const std::vector<Chain>& chains, Order order, int threads) {
+    const std::size_t n = chains.size();
+    const bool seats_matter = order == Order::a_first || order == Order::b_first;
+    std::vector<std::pair<std::size_t, std::size_t>> jobs;
+    for (std::size_t i = 0; i < n; ++i)
+        for (std::size_t j = 0; j < n; ++j)
+            if (i != j && (i < j || seats_matter)) jobs.emplace_back(i, j);
+    std::vector<std::pair<const Chain*, const Chain*>> pairs;
+    for (auto [i, j] : jobs) pairs.emplace_back(&chains[i], &chains[j]);
+    std::vector<ExactDuel> res = exact_duels(pairs, order, threads);
+    std::vector<std::optional<ExactDuel>> out(n * n);
+    for (std::size_t k = 0; k < jobs.size(); ++k) {
+        auto [i, j] = jobs[k];
+        out[i * n + j] = res[k];
+        if (!seats_matter) {
+            ExactDuel s = res[k];
+            std::swap(s.p_a_wins, s.p_b_wins);
+            out[j * n + i] = s;
+        }
+    }
+    return out;
+}
+
 std::string fraction_string(const mpq_class& q) {
     return q.get_num().get_str() + "/" + q.get_den().get_str();
 }

@@ -11,6 +11,7 @@
 #include <gmpxx.h>
 
 #include <array>
+#include <optional>
 #include <string>
 #include <utility>
 #include <vector>
@@ -40,6 +41,11 @@ ExactDuel exact_duel(const Chain& a, const Chain& b, Order order);
 // does not depend on the thread count.
 std::vector<ExactDuel> exact_duels(const std::vector<std::pair<const Chain*, const Chain*>>& pairs, Order order,
                                    int threads = 0);
+
+// Every ordered pair of distinct options on one board: result[i * n + j] is
+// chains[i] (as A) against chains[j]; the diagonal is empty. Seats are
+// swapped instead of recomputed where the order allows (simultaneous, coin).
+std::vector<std::optional<ExactDuel>> exact_matrix(const std::vector<Chain>& chains, Order order, int threads = 0);
 
 // "num/den" (den 1 is still written), and the value rounded to `places`
 // decimals (ties away from zero), e.g. "0.512345" or "-0.001200".

@@ -23,4 +23,21 @@ std::string exact_duel_text(const Option& a, const Option& b, const ExactDuel& e
     return out;
 }
 
+nlohmann::json exact_matrix_json(const std::vector<std::optional<ExactDuel>>& m, std::size_t n) {
+    nlohmann::json wins = nlohmann::json::array(), margins = nlohmann::json::array();
+    std::string method;
+    for (std::size_t i = 0; i < n; ++i) {
+        nlohmann::json w = nlohmann::json::array(), g = nlohmann::json::array();
+        for (std::size_t j = 0; j < n; ++j) {
+            const auto& e = m[i * n + j];
+            w.push_back(e ? nlohmann::json(fraction_string(e->p_a_wins)) : nlohmann::json(nullptr));
+            g.push_back(e ? nlohmann::json(fraction_string(e->margin())) : nlohmann::json(nullptr));
+            if (e && method.empty()) method = e->method;
+        }
+        wins.push_back(w);
+        margins.push_back(g);
+    }
+    return {{"method", method}, {"wins", wins}, {"margins", margins}};
+}
+
 }  // namespace overshoot::render

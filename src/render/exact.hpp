@@ -1,7 +1,9 @@
 #pragma once
 // Rendering of exact duels: fractions with their decimal values.
 #include <nlohmann/json.hpp>
+#include <optional>
 #include <string>
+#include <vector>
 
 #include "core/option.hpp"
 #include "race/exact.hpp"
@@ -12,5 +14,9 @@ namespace overshoot::render {
 nlohmann::json exact_duel_json(const ExactDuel& e);
 // A table of the reduced fractions and their decimals (12 places).
 std::string exact_duel_text(const Option& a, const Option& b, const ExactDuel& e);
+
+// {"method", "wins": [[P(row beats column) as "num/den", null on the diagonal]],
+//  "margins": [[...]]} for a tournament's options, in input order.
+nlohmann::json exact_matrix_json(const std::vector<std::optional<ExactDuel>>& m, std::size_t n);
 
 }  // namespace overshoot::render
