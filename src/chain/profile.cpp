@@ -8,6 +8,7 @@
 
 #include "chain/series.hpp"
 #include "core/error.hpp"
+#include "core/selfcheck.hpp"
 
 namespace overshoot {
 
@@ -59,6 +60,9 @@ Moments solve_moments(const Chain& c) {
                                                                        std::max(1.0, g.lpNorm<Eigen::Infinity>())});
     for (int s = 0; s < n; ++s) {
         if (index[s] < 0) continue;
+        // The clamp below only absorbs rounding; a NaN or a value far outside
+        // [0, 1] is a failed solve, not a probability.
+        selfcheck::check_probability(h[index[s]], selfcheck::solve_slack, "P(finish) from the absorbing-chain solve");
         m.h[s] = std::clamp(h[index[s]], 0.0, 1.0);
         m.g[s] = g[index[s]];
         m.k[s] = k[index[s]];
@@ -105,6 +109,11 @@ Profile profile(const Chain& c, const ProfileSettings& settings) {
             if (s.alive() == 0 || s.work() > settings.work_limit) break;
         }
         for (std::size_t i : pending) p.quantiles[i].resolved = s.alive() == 0;
+        // Two methods, one number: the series brackets P(finish) by what has
+        // finished and what is still alive.
+        selfcheck::check_within(p.p_finish, s.finished() - s.rounding_bound(),
+                                s.finished() + s.alive() + s.rounding_bound(), selfcheck::solve_slack,
+                                "P(finish) from the solve against the per-turn series");
     }
     return p;
 }
@@ -132,6 +141,9 @@ Distribution distribution(const Chain& c, double bound, long long max_rows) {
     d.remaining_finish = std::max(0.0L, rem);
     d.never = std::max(0.0L, 1.0L - static_cast<long double>(m.h[0]));
     d.rounding_bound = s.rounding_bound();
+    // The listed rows, the remaining finishing mass and never finishing partition the space.
+    selfcheck::check_distribution({s.finished(), d.remaining_finish, d.never}, d.rounding_bound + selfcheck::solve_slack,
+                                  "the listed distribution of T");
     return d;
 }
 

@@ -12,6 +12,9 @@ inline constexpr int max_sides = 100'000;             // S in NdS
 inline constexpr int max_faces = 100'000;             // listed faces or spinner sectors
 // Integer weights share one denominator; it must fit 62 bits so sums never overflow.
 inline constexpr std::uint64_t max_denominator = (std::uint64_t{1} << 62);
+// Multiply-adds one convolution may take while expanding an option spec
+// (sums and powers of large custom dice); NdS never comes near it.
+inline constexpr std::uint64_t max_spec_work = 200'000'000;
 // Default cap on the memory a single computation may plan to use (bytes);
 // raised with --memory-limit.
 inline constexpr std::uint64_t default_memory_bytes = std::uint64_t{4} << 30;

@@ -80,8 +80,10 @@ private:
         if (!peek_digit()) fail(fmt::format("expected {}", what));
         u64 v = 0;
         while (pos_ < text_.size() && text_[pos_] >= '0' && text_[pos_] <= '9') {
-            v = v * 10 + static_cast<u64>(text_[pos_] - '0');
-            if (v > cap) fail(fmt::format("{} is larger than the limit {}", what, cap));
+            const u64 digit = static_cast<u64>(text_[pos_] - '0');
+            // Checked before multiplying: v * 10 could wrap past 2^64 and look small.
+            if (v > (cap - digit) / 10) fail(fmt::format("{} is larger than the limit {}", what, cap));
+            v = v * 10 + digit;
             ++pos_;
         }
         return v;
@@ -116,10 +118,17 @@ private:
     Dist convolve(const Dist& a, const Dist& b) {
         u128 den = static_cast<u128>(a.den) * b.den;
         if (den > limits::max_denominator)
-            fail("the distribution's denominator exceeds 2^62 (too many or too large dice)");
+            fail(fmt::format("the distribution's denominator would be {} x {}, above the limit 2^62 (too many or "
+                             "too large dice)", a.den, b.den));
         std::size_t size = a.w.size() + b.w.size() - 1;
         if (size - 1 > static_cast<std::size_t>(limits::max_move))
             fail(fmt::format("a move larger than the limit {}", limits::max_move));
+        u64 nonzero = 0;
+        for (u64 x : a.w) nonzero += x != 0;
+        if (static_cast<u128>(nonzero) * b.w.size() > limits::max_spec_work)
+            throw LimitError(fmt::format("option spec '{}': expanding it would take about {} multiply-adds, above the "
+                                         "limit of {}", text_, static_cast<u64>(nonzero * b.w.size()),
+                                         limits::max_spec_work));
         Dist r;
         r.w.assign(size, 0);
         r.den = static_cast<u64>(den);
@@ -143,6 +152,34 @@ private:
         return result;
     }
 
+    // NdS by N passes of a sliding-window sum: O(N * N * S) additions instead
+    // of squaring dense distributions (2d50000 would need 2.5e9 multiply-adds).
+    Dist fair_dice(u64 count, u64 sides) {
+        u128 den = 1;
+        for (u64 i = 0; i < count; ++i) {
+            den *= sides;
+            if (den > limits::max_denominator)
+                fail(fmt::format("the distribution's denominator would be {}^{}, above the limit 2^62 (too many or "
+                                 "too large dice)", sides, count));
+        }
+        if (count * sides > static_cast<u64>(limits::max_move))
+            fail(fmt::format("a move larger than the limit {}", limits::max_move));
+        Dist d;  // a point mass at 0
+        for (u64 i = 0; i < count; ++i) {
+            std::vector<u64> next(d.w.size() + sides, 0);
+            u64 window = 0;  // sum of d.w[k - sides .. k - 1], at most den <= 2^62
+            for (std::size_t k = 1; k < next.size(); ++k) {
+                if (k - 1 < d.w.size()) window += d.w[k - 1];
+                if (k > sides && k - 1 - sides < d.w.size()) window -= d.w[k - 1 - sides];
+                next[k] = window;
+            }
+            d.w = std::move(next);
+        }
+        d.den = static_cast<u64>(den);
+        reduce(d);
+        return d;
+    }
+
     Dist term() {
         skip();
         if (pos_ >= text_.size()) fail("expected a term before the end");
@@ -161,11 +198,7 @@ private:
             ++pos_;
             u64 sides = integer(limits::max_sides, "the number of sides");
             if (sides == 0) fail("a die needs at least 1 side");
-            Dist die;
-            die.w.assign(sides + 1, 1);
-            die.w[0] = 0;
-            die.den = sides;
-            return power(die, count);
+            return fair_dice(count, sides);
         }
         if (c == '[') {
             if (have_count && count == 0) fail("the number of dice must be at least 1");

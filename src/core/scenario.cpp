@@ -123,11 +123,20 @@ Scenario load_scenario(const std::string& path) {
         throw InputError(fmt::format("{}: is a folder, not a scenario file", path));
     std::ifstream in(path, std::ios::binary);
     if (!in) throw InputError(fmt::format("{}: cannot open the scenario file", path));
+    // Refused before reading: a huge file must not be pulled into memory first.
+    constexpr std::uint64_t max_bytes = std::uint64_t{16} << 20;
+    in.seekg(0, std::ios::end);
+    const auto size = static_cast<std::int64_t>(in.tellg());
+    if (size > static_cast<std::int64_t>(max_bytes))
+        throw LimitError(fmt::format("{}: the scenario file has {} bytes, above the limit of {} bytes (16 MiB)", path,
+                                     size, max_bytes));
+    in.seekg(0, std::ios::beg);
     std::ostringstream ss;
     ss << in.rdbuf();
     std::string text = ss.str();
-    if (text.size() > (std::size_t{16} << 20))
-        throw LimitError(fmt::format("{}: the scenario file is larger than 16 MiB", path));
+    if (text.size() > max_bytes)  // a pipe or a file that grew while read
+        throw LimitError(fmt::format("{}: the scenario file has {} bytes or more, above the limit of {} bytes (16 MiB)",
+                                     path, text.size(), max_bytes));
     return parse_scenario(text, path);
 }
 

@@ -14,6 +14,7 @@
 #include "chain/series.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/selfcheck.hpp"
 #include "race/pairs.hpp"
 
 namespace overshoot {
@@ -396,11 +397,8 @@ DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings&
             break;
         }
     }
-    // Self-check: the four outcomes partition the probability space.
-    long double total = out.p_a_wins + out.p_b_wins + out.p_tie + out.p_neither;
-    if (std::fabs(static_cast<double>(total - 1.0L)) > static_cast<double>(4 * out.bound) + 1e-9)
-        throw InternalError(fmt::format("duel outcomes sum to {:.17g}, not 1 within the bound {:.3g}",
-                                        static_cast<double>(total), static_cast<double>(out.bound)));
+    // Self-check: the four outcomes partition the probability space (NaN fails too).
+    selfcheck::check_distribution({out.p_a_wins, out.p_b_wins, out.p_tie, out.p_neither}, out.bound, "duel");
     if (s.want_median && !out.median_resolved) median_rounds(a, b, out, s.work_limit / 4);
     return out;
 }

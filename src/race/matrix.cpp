@@ -11,6 +11,7 @@
 #include "core/error.hpp"
 #include "core/limits.hpp"
 #include "core/parallel.hpp"
+#include "core/selfcheck.hpp"
 #include "race/duel.hpp"
 #include "race/pairs.hpp"
 
@@ -253,6 +254,8 @@ DuelResult make_result(const Sums& s, long double bound, const std::string& meth
     // Race lengths are not computed for matrices (duel() gives them).
     d.mean_rounds = std::nan("");
     d.median_resolved = false;
+    // Self-check: p_neither is the remainder, so this catches win + loss + tie above 1 + bounds.
+    selfcheck::check_distribution({s.win, s.loss, s.tie, d.p_neither}, bound, "duel_matrix");
     return d;
 }
 

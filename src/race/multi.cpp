@@ -9,6 +9,7 @@
 #include "chain/series.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/selfcheck.hpp"
 
 namespace overshoot {
 
@@ -90,6 +91,11 @@ void finish_result(RaceResult& r, const std::vector<long double>& subset, int k)
         }
     }
     if (r.p_neither < 0) r.p_neither = std::max(0.0L, 1.0L - total);
+    // Self-check on the raw values (before the clamp at 0): the sets of first
+    // finishers and "nobody" partition the space, each within r.bound.
+    std::vector<long double> parts(subset.begin() + 1, subset.begin() + (1u << k));
+    parts.push_back(r.p_neither);
+    selfcheck::check_distribution(parts, r.bound, "race");
 }
 
 // The closure: a time-free programme over tuples of end-zone squares of the

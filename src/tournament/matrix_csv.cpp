@@ -115,7 +115,7 @@ PairwiseMatrix parse_matrix_csv(std::string_view text, const std::string& source
     const Line& header = lines.front();
     const std::size_t n = header.cells.size() - 1;
     if (n == 0) throw InputError(fmt::format("{}:{}: the header row names no option", source, header.number));
-    if (n > 100'000) throw LimitError(fmt::format("{}:{}: too many options ({})", source, header.number, n));
+    if (n > 100'000) throw LimitError(fmt::format("{}:{}: too many options ({}, above the limit of 100000)", source, header.number, n));
     limits::check_memory(static_cast<std::uint64_t>(n) * n * 64, "the win matrix");
     PairwiseMatrix m;
     std::set<std::string> seen;
