@@ -185,7 +185,7 @@ Sums closure(const Chain& ca, const Chain& cb, const Trace& a, const Trace& b, i
     const int n = ca.length;
     const long double t0 = horizon;
     if (a.lo < n && b.lo < n) {
-        if (outcome_programme_bound(ca, cb, a.lo, b.lo) <= 5e-14L) {
+        if (outcome_programme_bound(ca, cb, a.lo, b.lo) <= 3e-13L) {
             OutcomeTable ot = outcome_programme(ca, cb, a.lo, b.lo, a_first);
             rounding += ot.relative_rounding;
             for (int i = a.lo; i <= a.hi; ++i) {
@@ -282,7 +282,7 @@ std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order orde
     const bool forward = chains.front().forward_only;
     // Zones this narrow make the pair programme cheaper than more turns.
     const int narrow = 12;
-    const std::uint64_t budget = forward ? 2'000'000 : s.work_limit / std::max<std::size_t>(n, 1);
+    const std::uint64_t budget = forward ? 500'000 : s.work_limit / std::max<std::size_t>(n, 1);
     const int cap = forward ? kMaxHorizon : 1 << 24;
     std::vector<Tracer> tracers;
     tracers.reserve(n);
