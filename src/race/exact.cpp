@@ -229,6 +229,21 @@ std::array<mpq_class, 3> ExactPairs::run() {
     std::vector<std::vector<int>> free_after(n);
     for (int d = 0; d < n; ++d)
         if (lowest_user[d] >= 0) free_after[lowest_user[d]].push_back(d);
+    {
+        // Memory: the rows of G' alive at once plus the F row, each number at
+        // most about 2N log2(DA DB) bits plus C (exponents grow by one per cell).
+        int alive = 0, most = 0;
+        for (int a = n - 1; a >= 0; --a) {
+            if (lowest_user[a] >= 0) ++alive;
+            most = std::max(most, alive);
+            alive -= static_cast<int>(free_after[a].size());
+        }
+        const double bits = 2.0 * n * std::log2(static_cast<double>(A_.denominator) * static_cast<double>(B_.denominator)) +
+                            static_cast<double>(mpz_sizeinbase(c_.get_mpz_t(), 2));
+        const double bytes = static_cast<double>(most + 1) * n * cm * (bits / 8 + 32);
+        limits::check_memory(bytes > 1e18 ? ~std::uint64_t{0} : static_cast<std::uint64_t>(bytes),
+                             "the exact pair programme of this duel (omit --exact for proven intervals)");
+    }
     std::vector<std::unique_ptr<Row>> grow(n);
     std::vector<std::unique_ptr<Row>> pool;
     auto fresh_row = [&]() {
