@@ -191,6 +191,53 @@ TEST_CASE("series, product chain and pair programme agree on 240 random small bo
     CHECK(forward >= 60);
 }
 
+TEST_CASE("end zone, pairs, series and product agree on 45 random medium boards", "[race]") {
+    // Boards of 25..45 squares with moves of at most 5, so the end zone (the
+    // last 2 max_move + 2 squares) is a small part of the board and the zone
+    // method's series really runs before the pair programme closes it. The
+    // product-chain solve is the independent reference. Deterministic seed.
+    std::mt19937 rng(7031);
+    auto uniform = [&](int lo, int hi) { return std::uniform_int_distribution<int>(lo, hi)(rng); };
+    const char* specs[] = {"1d3", "1d5", "2d2", "[0,1,4]", "{1:3,5:1}", "[1,1,2]+[0,1]", "{0:1,2:1,3:2}", "[2,5]"};
+    int boards = 0, zone_series = 0;
+    while (boards < 45) {
+        const Overshoot rule = kRules[boards % 3];
+        const int length = uniform(25, 45);
+        std::vector<Jump> jumps;
+        for (int i = uniform(0, 4); i > 0; --i) jumps.push_back({uniform(1, length - 1), uniform(0, length)});
+        Board board;
+        try {
+            board = make_board(length, rule, jumps);
+        } catch (const InputError&) {
+            continue;
+        }
+        ++boards;
+        const char* sa = specs[uniform(0, 7)];
+        const char* sb = specs[uniform(0, 7)];
+        Chain a = build_chain(board, parse_option(sa));
+        Chain b = build_chain(board, parse_option(sb));
+        auto settings = [](DuelMethod m) { return DuelSettings{.method = m, .want_median = false}; };
+        for (Order order : kOrders) {
+            INFO(sa << " vs " << sb << ", " << describe(board, order));
+            DuelResult product = duel(a, b, order, settings(DuelMethod::product));
+            DuelResult series = duel(a, b, order, settings(DuelMethod::series));
+            CHECK(diff(series, product) <= 1e-12);
+            CHECK(series.error_bound() <= 1e-12);
+            if (board.forward_only()) {
+                DuelResult zone = duel(a, b, order, settings(DuelMethod::zone));
+                DuelResult pairs = duel(a, b, order, settings(DuelMethod::pairs));
+                CHECK(diff(zone, product) <= 1e-12);
+                CHECK(diff(pairs, product) <= 1e-12);
+                CHECK(zone.error_bound() <= 1e-12);
+                ++zone_series;
+            }
+            DuelResult automatic = duel(a, b, order, settings(DuelMethod::automatic));
+            CHECK(diff(automatic, product) <= 1e-12);
+        }
+    }
+    CHECK(zone_series >= 40);
+}
+
 TEST_CASE("coin is the mean of the two alternating orders; seats and symmetry", "[race]") {
     for (Overshoot rule : kRules) {
         Pair p = setup("1d6", "2d4+[0,1]", 40, rule, {{6, 17}, {30, 12}});
