@@ -1,0 +1,183 @@
+// overshoot report [SPEC...]: one self-contained HTML report (or one SVG
+// figure alone) for a scenario or options and board flags.
+#include <fmt/format.h>
+
+#include <memory>
+#include <optional>
+
+#include "chain/chain.hpp"
+#include "chain/profile.hpp"
+#include "cli/common.hpp"
+#include "cli/race_flags.hpp"
+#include "cli/registry.hpp"
+#include "core/error.hpp"
+#include "core/io.hpp"
+#include "race/choice.hpp"
+#include "race/multi.hpp"
+#include "render/figures.hpp"
+#include "render/report.hpp"
+#include "render/svg.hpp"
+#include "sweep/balance.hpp"
+#include "sweep/sweep.hpp"
+#include "tournament/tournament.hpp"
+
+namespace overshoot::cli {
+namespace {
+
+struct ReportArgs {
+    BoardFlags board;
+    std::vector<std::string> specs;
+    std::optional<std::string> output;
+    std::optional<std::string> lengths;
+    int step = 1;
+    std::optional<std::string> figure;
+    std::optional<std::string> svg;
+    bool race = false;
+    std::optional<std::string> race_order;
+    int choose = 0;
+    bool distinct = false;
+    std::optional<std::string> balance_starts;
+    std::optional<std::string> balance_lengths;
+    int threads = 0;
+};
+
+// The distribution is listed until 1e-9 of the finishing mass remains: the
+// figure cuts at 99% anyway, and the closing row carries the rest.
+constexpr double distribution_bound = 1e-9;
+constexpr long long distribution_rows = 200'000;
+
+void run(const ReportArgs& a) {
+    if (a.board.json) throw InputError("report writes HTML (or SVG with --svg); --json does not apply");
+    if (a.figure.has_value() != a.svg.has_value())
+        throw InputError("--figure and --svg go together: --figure digraph|sweep|distribution --svg FILE");
+    if (a.figure && *a.figure != "digraph" && *a.figure != "sweep" && *a.figure != "distribution")
+        throw InputError(fmt::format("unknown --figure '{}': use digraph, sweep or distribution", *a.figure));
+    if (!a.figure && !a.output) throw InputError("say where to write: -o FILE.html (or --figure NAME --svg FILE)");
+    if (a.figure && *a.figure == "sweep" && !a.lengths) throw InputError("--figure sweep needs --lengths LO..HI");
+    if (a.threads < 0) throw InputError("--threads must be 0 (all cores) or more");
+    if (a.choose != 0 && (a.choose < 2 || a.choose > max_race_pieces))
+        throw InputError(fmt::format("--choose {}: expected 2 to {} players", a.choose, max_race_pieces));
+    if (a.distinct && a.choose == 0) throw InputError("--distinct applies to --choose only");
+
+    Setup s = resolve_setup(a.board, a.specs, 1, 100);
+    const std::string fig = a.figure.value_or("");
+    const bool want_all = fig.empty();
+    const bool multi = a.race || a.choose > 0 || a.balance_starts || a.balance_lengths;
+    if (!want_all && multi) throw InputError("--race, --choose and --balance-* belong to the HTML report, not to --figure");
+    if (multi && s.options.size() < 2 && (a.race || a.balance_starts || a.balance_lengths))
+        throw InputError("--race and --balance-* need at least two options");
+    if ((a.race || a.balance_starts || a.balance_lengths) && s.options.size() > static_cast<std::size_t>(max_race_pieces))
+        throw InputError(fmt::format("--race and --balance-* take at most {} options (one piece each)", max_race_pieces));
+    RaceOrder race_order = RaceOrder::simultaneous;
+    if (a.race_order) {
+        race_order = parse_race_order(*a.race_order);
+    } else if (multi && s.order != Order::simultaneous) {
+        throw InputError(fmt::format("order '{}' is for duels; give --race-order simultaneous or seated for the race sections",
+                                     to_string(s.order)));
+    }
+    if (a.race_order && !multi) throw InputError("--race-order applies to --race, --choose and --balance-* only");
+
+    render::ReportInput in;
+    in.board = &s.board;
+    in.order = s.order;
+    in.options = &s.options;
+    in.source = a.board.scenario ? "scenario " + *a.board.scenario : std::string("command line");
+    in.race_order = race_order;
+
+    std::vector<Chain> chains;
+    if (want_all || fig == "distribution")
+        for (const auto& o : s.options) chains.push_back(build_chain(s.board, o));
+    if (want_all)
+        for (const auto& c : chains) in.profiles.push_back(profile(c));
+    if (want_all || fig == "distribution")
+        for (const auto& c : chains) in.distributions.push_back(distribution(c, distribution_bound, distribution_rows));
+
+    std::optional<Tournament> tour;
+    if (want_all || fig == "digraph") {
+        DuelSettings ds;
+        ds.want_median = false;
+        tour = analyse(race_matrix(s.board, s.order, s.options, ds, a.threads));
+        in.tournament = &*tour;
+    }
+
+    std::optional<SweepResult> sweep;
+    if (a.lengths && (want_all || fig == "sweep")) {
+        SweepSpec spec;
+        spec.grid = parse_lengths(*a.lengths, a.step);
+        spec.options = s.options;
+        spec.jumps = s.board.jumps;
+        spec.variants = {Variant{s.board.rule, s.order}};
+        if (!spec.jumps.empty() || s.board.rule == Overshoot::bounce) make_board(spec.grid.hi, s.board.rule, spec.jumps);
+        spec.engine.threads = a.threads;
+        sweep = run_sweep(spec);
+        in.sweep = &*sweep;
+    }
+
+    if (!want_all) {
+        std::vector<std::string> names;
+        for (const auto& o : s.options) names.push_back(o.name);
+        render::svg::Element e = fig == "digraph" ? render::digraph_figure(*tour)
+                                 : fig == "sweep" ? render::sweep_figure(*sweep)
+                                                  : render::distribution_figure(names, in.distributions);
+        write_atomically(*a.svg, render::svg::file(e));
+        return;
+    }
+
+    std::vector<const Chain*> ptr;
+    for (const auto& c : chains) ptr.push_back(&c);
+    std::optional<RaceResult> race_result;
+    std::optional<ChoiceResult> choice;
+    std::optional<HeadStartResult> starts;
+    std::optional<LengthsResult> fair;
+    if (a.race) {
+        race_result = race(ptr, {}, race_order);
+        in.race = &*race_result;
+    }
+    if (a.choose > 0) {
+        RaceCache cache(s.board, ptr, race_order);
+        choice = solve_choice(cache, static_cast<int>(s.options.size()), a.choose, a.distinct);
+        in.choice = &*choice;
+    }
+    if (a.balance_starts) {
+        auto [lo, hi] = parse_range(*a.balance_starts, "--balance-starts");
+        RaceCache cache(s.board, ptr, race_order);
+        starts = balance_starts(cache, static_cast<int>(s.options.size()), lo, hi);
+        in.head_starts = &*starts;
+    }
+    if (a.balance_lengths) {
+        auto [lo, hi] = parse_range(*a.balance_lengths, "--balance-lengths");
+        fair = balance_lengths(s.board, s.options, race_order, lo, hi);
+        in.fair_lengths = &*fair;
+    }
+    write_atomically(*a.output, render::report_html(in));
+}
+
+const Registration reg(80, [](CLI::App& app) {
+    auto args = std::make_shared<ReportArgs>();
+    auto* cmd = app.add_subcommand(
+        "report", "one self-contained HTML report with figures (or one SVG figure alone)\n"
+        "usage: overshoot report [SPEC...] -o FILE.html   (specs or scenario names; default: the scenario's options)");
+    // Option words come from the leftovers: a declared positional would let
+    // CLI11 split a custom die "[1,2,6]" into three words.
+    cmd->allow_extras();
+    add_board_flags(*cmd, args->board);
+    cmd->add_option("-o,--output", args->output, "the HTML file to write (atomically)");
+    cmd->add_option("--lengths", args->lengths, "also sweep this range of lengths LO..HI (adds the sweep figure)");
+    cmd->add_option("--step", args->step, "step between swept lengths (default 1)");
+    cmd->add_option("--figure", args->figure, "write one figure alone: digraph, sweep or distribution (with --svg)");
+    cmd->add_option("--svg", args->svg, "the SVG file for --figure (written atomically)");
+    cmd->add_flag("--race", args->race, "add a race of all the options, one piece each (2 to 6)");
+    cmd->add_option("--race-order", args->race_order, "order of the race sections: simultaneous or seated");
+    cmd->add_option("--choose", args->choose, "add the choice game of this many players (2 to 6)");
+    cmd->add_flag("--distinct", args->distinct, "in the choice game no option may be picked twice");
+    cmd->add_option("--balance-starts", args->balance_starts, "add the fairest head starts on squares LO..HI");
+    cmd->add_option("--balance-lengths", args->balance_lengths, "add the fairest lengths in LO..HI");
+    cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)");
+    cmd->callback([args, cmd] {
+        args->specs = option_words(*cmd);
+        run(*args);
+    });
+});
+
+}  // namespace
+}  // namespace overshoot::cli
