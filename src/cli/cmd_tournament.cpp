@@ -59,7 +59,7 @@ void run(const TournamentArgs& a) {
         Setup s = resolve_setup(a.board, a.specs, 1, 100'000);
         DuelSettings ds;
         ds.method = parse_duel_method(a.method);
-        // ds.want_median = false;
+        ds.want_median = false;  // the tournament reports no race lengths; lets the engine share work across pairs
         matrix = race_matrix(s.board, s.order, s.options, ds, a.threads);
         src.board = s.board;
         src.order = s.order;
