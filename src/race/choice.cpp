@@ -32,6 +32,7 @@ struct Solver {
         const RaceResult& r = it->second;
         bound = r.bound;
         out.bound = std::max(out.bound, r.bound);
+        out.target_met = out.target_met && r.target_met;
         std::vector<long double> ch(k);
         for (int i = 0; i < k; ++i) {
             // Seat i holds option picks[i]; with seats free, the first copy of

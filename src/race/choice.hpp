@@ -19,6 +19,7 @@ struct ChoiceResult {
     bool distinct = false;
     ChoicePath equilibrium;       // the backward-induction path from the empty start
     long double bound = 0;        // largest error bound of any race consulted
+    bool target_met = true;       // every race consulted met the wanted 1e-12
     // The multi-player counterpart of the counter table: for every first pick,
     // how the later players answer (their equilibrium continuation).
     std::vector<ChoicePath> after_first_pick;

@@ -376,7 +376,7 @@ PieceTrack record_track(const Chain& chain, int start, long double threshold, in
 }
 
 std::optional<RaceResult> race_from_tracks(const std::vector<const PieceTrack*>& tr, RaceOrder order,
-                                           long double target) {
+                                           long double target, long double accept) {
     const int k = static_cast<int>(tr.size());
     if (k < 2 || k > max_race_pieces) throw InputError(fmt::format("a race takes 2 to {} pieces, got {}", max_race_pieces, k));
     // Combine up to the shortest incomplete track (or the longest complete one);
@@ -424,7 +424,7 @@ std::optional<RaceResult> race_from_tracks(const std::vector<const PieceTrack*>&
     RaceResult r;
     r.bound = unresolved(k, alive.data(), stuck.data()) + frozen + rounding +
               gamma_ld(2.0 * k + static_cast<double>(horizon) + 8);
-    if (r.bound > target) return std::nullopt;
+    if (r.bound > accept) return std::nullopt;
     long double nei = 1;
     for (int j = 0; j < k; ++j) nei *= stuck[j];
     r.p_neither = nei;
@@ -452,7 +452,7 @@ RaceResult RaceCache::run(const std::vector<int>& picks, const std::vector<int>&
     for (std::size_t i = 0; i < starts_in.size() && i < picks.size(); ++i) starts[i] = resolve_start(*board_, starts_in[i]);
     std::vector<const PieceTrack*> tr;
     for (std::size_t i = 0; i < picks.size(); ++i) tr.push_back(&track(picks[i], starts[i]));
-    if (auto r = race_from_tracks(tr, order_, settings_.wanted)) {
+    if (auto r = race_from_tracks(tr, order_, settings_.target, settings_.wanted)) {
         r->target_met = r->bound <= settings_.wanted;
         return *r;
     }

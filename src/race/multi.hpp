@@ -69,10 +69,11 @@ struct PieceTrack {
 
 PieceTrack record_track(const Chain& chain, int start, long double threshold, int max_turns);
 
-// Combines recorded tracks into one race. Returns nothing when the proven
-// bound would exceed `target` (the caller then runs race()).
+// Combines recorded tracks into one race, stopping once the unresolved mass is
+// below `target` / 16. Returns nothing when the proven bound would exceed
+// `accept` (the caller then runs race()).
 std::optional<RaceResult> race_from_tracks(const std::vector<const PieceTrack*>& tracks, RaceOrder order,
-                                           long double target);
+                                           long double target, long double accept);
 
 // Many races of the same options on one board (choice games, balancing):
 // chains and tracks are built once per option and start square.
