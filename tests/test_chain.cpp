@@ -353,3 +353,28 @@ TEST_CASE("a chain too large for the memory cap is refused before allocating", "
     limits::set_memory_bytes(saved);
     CHECK_NOTHROW(build_chain(make_board(1000, Overshoot::stay, {}), o));
 }
+
+TEST_CASE("a heavy tail: moves of 1 with probability 1/100000 on 10 squares", "[chain]") {
+    // Handbook closed form: T is a sum of r = 10 geometric(p = 1e-5) waits, a
+    // negative binomial: mean r/p, variance r(1-p)/p^2, and P(T <= t) =
+    // P(Binomial(t, p) >= r). The series must reach the median (near 9.7e5
+    // turns) without a step cap deciding it.
+    Chain c = chain_of("{0:99999,1:1}", 10);
+    Profile p = profile(c);
+    const double r = 10, q = 1e-5;
+    CHECK(p.p_finish == Approx(1.0).margin(1e-12));
+    CHECK(p.mean_turns_given_finish == Approx(r / q).epsilon(1e-9));
+    CHECK(p.sd_turns_given_finish == Approx(std::sqrt(r * (1 - q)) / q).epsilon(1e-8));
+    auto cdf = [&](long long t) {
+        // P(Binomial(t, q) >= 10) = 1 - sum_{k<10} C(t,k) q^k (1-q)^(t-k), in logs.
+        long double below = 0;
+        for (int k = 0; k < 10; ++k)
+            below += std::exp(std::lgamma(t + 1.0L) - std::lgamma(k + 1.0L) - std::lgamma(t - k + 1.0L) +
+                              k * std::log(static_cast<long double>(q)) + (t - k) * std::log1p(-static_cast<long double>(q)));
+        return 1 - below;
+    };
+    REQUIRE(p.quantiles.at(0).turns.has_value());
+    const long long median = *p.quantiles[0].turns;
+    CHECK(cdf(median) >= 0.5L);
+    CHECK(cdf(median - 1) < 0.5L);
+}
