@@ -108,8 +108,9 @@ void run(const HuntArgs& a) {
 const Registration reg(70, [](CLI::App& app) {
     auto args = std::make_shared<HuntArgs>();
     auto* cmd = app.add_subcommand("hunt", "search a family of options over lengths and rules for intransitive sets");
-    cmd->add_option("family", args->family, "family items, e.g. '1..6d{4,6,8,10,12,20}', '@dice.txt', '[0,3,3,5]'")
-        ->required();
+    // Family words come from the leftovers so that CLI11 never splits
+    // "1..6d{4,6,8}" or "[0,3,3,5]" at its commas.
+    cmd->allow_extras();
     cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI");
     cmd->add_option("--step", args->step, "step between lengths (default 1)");
     cmd->add_option("--overshoot", args->rules, "rule(s): stay, bounce, pass; repeat or comma-separate");
@@ -127,7 +128,15 @@ const Registration reg(70, [](CLI::App& app) {
                     "stop as if interrupted after this many new pairs (for batches and tests)");
     cmd->add_option("--memory-limit", args->memory_mib, "memory cap in MiB for one computation (default 4096)");
     cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
-    cmd->callback([args] { run(*args); });
+    cmd->callback([args, cmd] {
+        args->family = cmd->remaining();
+        for (const auto& w : args->family)
+            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
+                throw InputError(fmt::format("hunt: unknown flag '{}' (see --help)", w));
+        if (args->family.empty())
+            throw InputError("hunt: give a family of options, e.g. '1..6d{4,6,8,10,12,20}' (docs/sweep.md)");
+        run(*args);
+    });
 });
 
 }  // namespace

@@ -105,7 +105,9 @@ const Registration reg(60, [](CLI::App& app) {
     auto args = std::make_shared<SweepArgs>();
     auto* cmd = app.add_subcommand("sweep", "the same options over a range of lengths and rule variants: crossovers, "
                                             "cycle intervals, lengths with no dominant option");
-    cmd->add_option("specs", args->specs, "option specs or scenario names (two or more)");
+    // Option words come from the leftovers: a declared positional would let
+    // CLI11 split a custom die "[1,2,6]" into three words.
+    cmd->allow_extras();
     cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI (or one length)");
     cmd->add_option("--step", args->step, "step between swept lengths (default 1)");
     cmd->add_option("--overshoot", args->rules, "rule(s): stay, bounce, pass; repeat or comma-separate for variants");
@@ -124,7 +126,13 @@ const Registration reg(60, [](CLI::App& app) {
     cmd->add_option("--max-cycle-length", args->max_cycle_length, "longest cycle listed per length (default 6)");
     cmd->add_option("--memory-limit", args->memory_mib, "memory cap in MiB for one computation (default 4096)");
     cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
-    cmd->callback([args] { run(*args); });
+    cmd->callback([args, cmd] {
+        args->specs = cmd->remaining();
+        for (const auto& w : args->specs)
+            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
+                throw InputError(fmt::format("sweep: unknown flag '{}' (see --help)", w));
+        run(*args);
+    });
 });
 
 }  // namespace
