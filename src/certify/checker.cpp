@@ -11,8 +11,10 @@
 #include "certify/pool.hpp"
 #include "chain/chain.hpp"
 #include "core/error.hpp"
+#include "core/limits.hpp"
 #include "race/duel.hpp"
 #include "race/exact.hpp"
+#include "race/pairs.hpp"
 
 namespace overshoot {
 
@@ -129,7 +131,10 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
                 DuelSettings s;
                 s.want_median = false;
                 // A method other than the writer's automatic choice where one is proven.
-                s.method = ca.forward_only ? DuelMethod::pairs : DuelMethod::series;
+                // (the full pair programme only while it fits the memory cap comfortably).
+                s.method = !ca.forward_only ? DuelMethod::series
+                           : pair_programme_memory(ca.length, 0, 0) <= limits::memory_bytes() / 2 ? DuelMethod::pairs
+                                                                                                   : DuelMethod::automatic;
                 approx[t % m] = duel(ca, cb, c.order, s);
             }
         });
