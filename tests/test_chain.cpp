@@ -142,6 +142,7 @@ TEST_CASE("2d6 ends stuck on the last-but-one square about 33.5% of the time at 
         Chain c = chain_of("2d6", length);
         Profile p = profile(c, ProfileSettings{.quantiles = {}});
         INFO("length " << length << " P(stuck) " << p.p_stuck);
+        // The only stuck square is the last-but-one, so P(stuck) is the chance of ending there.
         CHECK(p.stuck_squares == std::vector<int>{length - 1});
         CHECK(std::fabs(p.p_stuck - 0.335) < 0.001);
         seen.push_back(p.p_stuck);

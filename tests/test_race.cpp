@@ -166,6 +166,11 @@ TEST_CASE("series, product chain and pair programme agree on 240 random small bo
             CHECK(series.error_bound() <= 1e-12);
             CHECK(diff(series, product) <= 1e-12);
             worst = std::max(worst, diff(series, product));
+            // Rounds to the first finish, given one happens, by both methods.
+            if (std::isfinite(product.mean_rounds))
+                CHECK(series.mean_rounds == Approx(product.mean_rounds).epsilon(1e-9).margin(1e-9));
+            else
+                CHECK_FALSE(std::isfinite(series.mean_rounds));
             CHECK(total(series) == Approx(1.0).margin(1e-12));
             CHECK(total(product) == Approx(1.0).margin(1e-12));
             if (order != Order::simultaneous) {
@@ -229,6 +234,8 @@ TEST_CASE("end zone, pairs, series and product agree on 45 random medium boards"
                 CHECK(diff(zone, product) <= 1e-12);
                 CHECK(diff(pairs, product) <= 1e-12);
                 CHECK(zone.error_bound() <= 1e-12);
+                CHECK(zone.mean_rounds == Approx(product.mean_rounds).epsilon(1e-9));
+                CHECK(pairs.mean_rounds == Approx(product.mean_rounds).epsilon(1e-9));
                 ++zone_series;
             }
             DuelResult automatic = duel(a, b, order, settings(DuelMethod::automatic));
