@@ -6,11 +6,14 @@
 #include <memory>
 #include <optional>
 
+#include "chain/chain.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
 #include "core/io.hpp"
 #include "race/duel.hpp"
+#include "race/exact.hpp"
+#include "render/exact.hpp"
 #include "render/tournament.hpp"
 #include "tournament/matrix_csv.hpp"
 #include "tournament/tournament.hpp"
@@ -29,6 +32,7 @@ struct TournamentArgs {
     std::optional<std::string> output;
     std::string method = "auto";
     int threads = 0;
+    bool exact = false;
 };
 
 void run(const TournamentArgs& a) {
@@ -43,6 +47,9 @@ void run(const TournamentArgs& a) {
     settings.cycle_cap = static_cast<std::size_t>(a.cycle_cap);
 
     render::TournamentSource src;
+    std::optional<nlohmann::json> exact;  // --exact: every P(row beats column) as a fraction
+    if (a.exact && (a.matrix || format != "json"))
+        throw InputError("--exact needs races (not --matrix) and JSON output (--json or --format json)");
     PairwiseMatrix matrix;
     if (a.matrix) {
         // The file replaces the races: board flags and options would be ignored, so refuse them.
@@ -61,6 +68,11 @@ void run(const TournamentArgs& a) {
         ds.method = parse_duel_method(a.method);
         ds.want_median = false;  // the tournament reports no race lengths; lets the engine share work across pairs
         matrix = race_matrix(s.board, s.order, s.options, ds, a.threads);
+        if (a.exact) {
+            std::vector<Chain> chains;
+            for (const auto& o : s.options) chains.push_back(build_chain(s.board, o));
+            exact = render::exact_matrix_json(exact_matrix(chains, s.order, a.threads), chains.size());
+        }
         src.board = s.board;
         src.order = s.order;
         src.options = s.options;
@@ -69,7 +81,11 @@ void run(const TournamentArgs& a) {
 
     std::string out;
     if (format == "json")
-        out = render::tournament_json(t, src).dump(2) + "\n";
+    {
+        nlohmann::json j = render::tournament_json(t, src);
+        if (exact) j["exact"] = *exact;
+        out = j.dump(2) + "\n";
+    }
     else if (format == "md")
         out = render::tournament_markdown(t, src);
     else if (format == "latex")
@@ -102,6 +118,7 @@ const Registration reg(40, [](CLI::App& app) {
     cmd->add_option("--format", args->format, "text, json, md, latex, csv (the --matrix format) or dot");
     cmd->add_option("--output", args->output, "write to this file instead of stdout");
     cmd->add_option("--method", args->method, "duel method: auto, pairs, zone, series or product (docs/method.md)");
+    cmd->add_flag("--exact", args->exact, "with --json: also P(row beats column) and margins as exact fractions (docs/exact.md)");
     cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)");
     cmd->callback([args, cmd] {
         args->specs = cmd->remaining();
