@@ -80,13 +80,11 @@ void run(const TournamentArgs& a) {
     Tournament t = analyse(std::move(matrix), settings);
 
     std::string out;
-    if (format == "json")
-    {
+    if (format == "json") {
         nlohmann::json j = render::tournament_json(t, src);
         if (exact) j["exact"] = *exact;
         out = j.dump(2) + "\n";
-    }
-    else if (format == "md")
+    } else if (format == "md")
         out = render::tournament_markdown(t, src);
     else if (format == "latex")
         out = render::tournament_latex(t, src);
