@@ -11,6 +11,7 @@
 #include "race/duel.hpp"
 #include "race/exact.hpp"
 #include "race/multi.hpp"
+#include "sweep/sweep.hpp"
 
 namespace overshoot {
 
@@ -69,6 +70,21 @@ BenchReport run_bench() {
         std::string out;
         for (long double p : r.p_wins) out += digits(static_cast<double>(p)) + " ";
         return out + digits(static_cast<double>(r.p_tie));
+    });
+    timed("sweep 1d6 2d6 3d6 over 1..3000", [&] {
+        SweepSpec spec;
+        for (const char* s : {"1d6", "2d6", "3d6"}) spec.options.push_back(parse_option(s));
+        spec.grid = {1, 3000, 1};
+        spec.engine.threads = 1;
+        SweepResult r = run_sweep(spec);
+        std::string out;
+        double sum = 0;
+        for (const auto& p : r.variants[0].pairs)
+            for (const auto& o : p.at) sum += o.margin();
+        for (const auto& c : r.variants[0].crossovers) out += fmt::format("{}-{}@{} ", c.a, c.b, c.after);
+        for (const auto& c : r.variants[0].cycles)
+            for (auto iv : c.intervals) out += fmt::format("[{},{}] ", iv.first, iv.second);
+        return out + digits(sum);
     });
     timed("profile 1d6..6d6 on 10000", [&] {
         Board board = make_board(10000, Overshoot::stay, {});
