@@ -263,16 +263,16 @@ TEST_CASE("cli bad input: spec 0d6", "[cli]") { expect_one_line_error({"profile"
 TEST_CASE("cli bad input: spec 2d0", "[cli]") { expect_one_line_error({"profile", "2d0", "--length", "10"}, "2d0"); }
 TEST_CASE("cli bad input: spec d", "[cli]") { expect_one_line_error({"profile", "d", "--length", "10"}, "'d'"); }
 TEST_CASE("cli bad input: spec 3d", "[cli]") { expect_one_line_error({"profile", "3d", "--length", "10"}, "'3d'"); }
-TEST_CASE("cli bad input: spec [] names the empty die", "[cli][!mayfail]") {
+TEST_CASE("cli bad input: spec [] names the empty die", "[cli]") {
     // Fails today: CLI11 2.1 expands a positional "[...]" into a list of values
     // (Option::_add_result), so "[]" arrives as no option at all.
     expect_one_line_error({"profile", "[]", "--length", "10"}, "face");
 }
-TEST_CASE("cli bad input: spec [1,-2] names the negative face", "[cli][!mayfail]") {
+TEST_CASE("cli bad input: spec [1,-2] names the negative face", "[cli]") {
     // Fails today for the same reason: "[1,-2]" arrives as the specs "1" and "-2".
     expect_one_line_error({"profile", "[1,-2]", "--length", "10"}, "[1,-2]");
 }
-TEST_CASE("cli: a custom die [1,2,3] is one option, not three", "[cli][!mayfail]") {
+TEST_CASE("cli: a custom die [1,2,3] is one option, not three", "[cli]") {
     // Fails today (CLI11 list expansion, see above): three constants 1, 2, 3.
     Run r = run({"profile", "[1,2,3]", "--length", "10", "--json"});
     REQUIRE(r.status == 0);
@@ -356,7 +356,7 @@ TEST_CASE("cli bad input: a method that does not apply to the board", "[cli]") {
     expect_one_line_error({"duel", "1d6", "2d6", "--length", "20", "--overshoot", "bounce", "--method", "pairs"},
                           "pairs");
 }
-TEST_CASE("cli: a huge --memory-limit does not wrap around to 0", "[cli][!mayfail]") {
+TEST_CASE("cli: a huge --memory-limit does not wrap around to 0", "[cli]") {
     // Fails today: src/cli/common.cpp shifts the MiB count left by 20 bits in
     // 64-bit arithmetic, so 2^44 MiB becomes a cap of 0 bytes and every chain
     // is refused ("above the memory limit of 0 MiB"). Either accepting it or a
@@ -370,7 +370,7 @@ TEST_CASE("cli: a huge --memory-limit does not wrap around to 0", "[cli][!mayfai
         CHECK_THAT(r.err, Catch::Contains("--memory-limit") && !Catch::Contains("limit of 0 MiB"));
     }
 }
-TEST_CASE("cli: a duel nobody can finish prints no NaN", "[cli][!mayfail]") {
+TEST_CASE("cli: a duel nobody can finish prints no NaN", "[cli]") {
     // Fails today: the text prints "mean nan rounds" (src/render/race.cpp);
     // the JSON already gives null.
     Run r = run({"duel", "0", "0", "--length", "5"});

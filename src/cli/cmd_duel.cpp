@@ -43,11 +43,15 @@ void run(const DuelArgs& a) {
 const Registration reg(20, [](CLI::App& app) {
     auto args = std::make_shared<DuelArgs>();
     auto* cmd = app.add_subcommand("duel", "probability that option A finishes before option B, with a proven bound");
-    cmd->add_option("specs", args->specs, "two option specs or scenario names")->expected(0, 2);
+    // Option words come verbatim from the extras (see option_words).
+    cmd->allow_extras();
     add_board_flags(*cmd, args->board);
     cmd->add_option("--method", args->method, "auto, pairs, zone, series or product (docs/method.md)");
     cmd->add_flag("--exact", args->exact, "also give every probability as an exact fraction (docs/exact.md)");
-    cmd->callback([args] { run(*args); });
+    cmd->callback([args, cmd] {
+        args->specs = option_words(*cmd);
+        run(*args);
+    });
 });
 
 }  // namespace

@@ -52,13 +52,17 @@ void run(const ProfileArgs& a) {
 const Registration reg(10, [](CLI::App& app) {
     auto args = std::make_shared<ProfileArgs>();
     auto* cmd = app.add_subcommand("profile", "finishing chance, mean, spread and median turns of each option alone");
-    cmd->add_option("specs", args->specs, "option specs (NdS, [faces], {move:weight}, sums) or scenario names");
+    // Option words come verbatim from the extras (see option_words).
+    cmd->allow_extras();
     add_board_flags(*cmd, args->board, false);
     cmd->add_option("--quantile", args->quantiles, "also report this quantile of the finishing turn (repeatable)");
     cmd->add_option("--distribution", args->distribution, "write the finishing-time distribution to this CSV file");
     cmd->add_option("--bound", args->bound, "list the distribution until the remaining finishing mass is below this");
     cmd->add_option("--max-rows", args->max_rows, "at most this many rows per option in the distribution");
-    cmd->callback([args] { run(*args); });
+    cmd->callback([args, cmd] {
+        args->specs = option_words(*cmd);
+        run(*args);
+    });
 });
 
 }  // namespace

@@ -113,15 +113,3 @@ std::pair<int, int> parse_range(const std::string& text, const char* what) {
 }
 
 }  // namespace overshoot::cli
-
-namespace overshoot::cli {
-
-std::vector<std::string> option_words(const CLI::App& cmd) {
-    std::vector<std::string> words = cmd.remaining();
-    for (const auto& w : words)
-        if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
-            throw InputError(fmt::format("{}: unknown flag '{}' (see --help)", cmd.get_name(), w));
-    return words;
-}
-
-}  // namespace overshoot::cli

@@ -24,6 +24,9 @@ Setup resolve_setup(const BoardFlags& f, const std::vector<std::string>& words, 
                     std::size_t max_options) {
     if (f.memory_mib) {
         if (*f.memory_mib < 1) throw InputError("--memory-limit must be at least 1 MiB");
+        // Shifting more than 2^44 MiB left by 20 bits would wrap around.
+        if (*f.memory_mib > (1LL << 43))
+            throw InputError(fmt::format("--memory-limit {}: at most {} MiB", *f.memory_mib, 1LL << 43));
         limits::set_memory_bytes(static_cast<std::uint64_t>(*f.memory_mib) << 20);
     }
     Scenario sc;
@@ -65,7 +68,16 @@ Setup resolve_setup(const BoardFlags& f, const std::vector<std::string>& words, 
                     break;
                 }
             }
-            if (!found) s.options.push_back(parse_option(w));
+            if (!found) {
+                try {
+                    s.options.push_back(parse_option(w));
+                } catch (const InputError& e) {
+                    if (!sc.options.empty() && w.find_first_of("0123456789[{") == std::string::npos)
+                        throw InputError(fmt::format("'{}' is neither an option of {} nor a valid spec ({})", w,
+                                                     sc.source, e.what()));
+                    throw;
+                }
+            }
         }
     }
     if (s.options.size() < min_options)
@@ -74,6 +86,14 @@ Setup resolve_setup(const BoardFlags& f, const std::vector<std::string>& words, 
     if (s.options.size() > max_options)
         throw InputError(fmt::format("this command takes at most {} options, got {}", max_options, s.options.size()));
     return s;
+}
+
+std::vector<std::string> option_words(const CLI::App& cmd) {
+    std::vector<std::string> words = cmd.remaining();
+    for (const auto& w : words)
+        if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
+            throw InputError(fmt::format("{}: unknown flag '{}' (see --help)", cmd.get_name(), w));
+    return words;
 }
 
 void emit(const std::string& text) {

@@ -36,6 +36,11 @@ struct Setup {
 Setup resolve_setup(const BoardFlags& flags, const std::vector<std::string>& words, std::size_t min_options,
                     std::size_t max_options);
 
+// The option words of a command that takes them as extras, verbatim (CLI11
+// would split a bracketed die like [1,2,6] given as a positional); a word that
+// looks like a flag is refused as unknown.
+std::vector<std::string> option_words(const CLI::App& cmd);
+
 // Prints text or a JSON document (with a final newline) to stdout.
 void emit(const std::string& text);
 

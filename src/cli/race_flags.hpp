@@ -20,9 +20,3 @@ std::vector<int> parse_starts(const std::vector<std::string>& words, std::size_t
 std::pair<int, int> parse_range(const std::string& text, const char* what);
 
 }  // namespace overshoot::cli
-
-namespace overshoot::cli {
-// The option words of a command that takes them as extras, verbatim; a word
-// that looks like a flag is refused as unknown.
-std::vector<std::string> option_words(const CLI::App& cmd);
-}  // namespace overshoot::cli

@@ -268,7 +268,11 @@ std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order orde
     if (n == 0) return out;
     for (const auto& c : chains)
         if (c.length != chains.front().length) throw InternalError("duel_matrix: chains on different boards");
-    // Forced methods, medians, and seat-dependent orders go pair by pair.
+    // Refuse before any series runs: every option's traces and the results.
+    limits::check_memory(static_cast<std::uint64_t>(chains.front().length) * n * 64 +
+                             static_cast<std::uint64_t>(n) * n * sizeof(DuelResult),
+                         "the series of every option of this tournament");
+    // Forced methods and medians go pair by pair.
     if (s.method != DuelMethod::automatic || s.want_median) {
         std::vector<std::pair<std::size_t, std::size_t>> jobs;
         for (std::size_t i = 0; i < n; ++i)

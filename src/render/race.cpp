@@ -59,9 +59,9 @@ std::string profile_text(const Board& board, Order order, const std::vector<Prof
         if (p.stuck_squares.empty()) {
             stuck = "none";
         } else {
-            // Show as distances to the finish: that is what players see.
+            // Squares in board order; the JSON lists them all.
             std::size_t shown = 0;
-            for (auto it = p.stuck_squares.rbegin(); it != p.stuck_squares.rend() && shown < 8; ++it, ++shown)
+            for (auto it = p.stuck_squares.begin(); it != p.stuck_squares.end() && shown < 8; ++it, ++shown)
                 stuck += (shown ? " " : "") + fmt::format("{}", *it);
             if (p.stuck_squares.size() > 8) stuck += fmt::format(" (+{} more)", p.stuck_squares.size() - 8);
         }
@@ -133,8 +133,14 @@ std::string duel_text(const Board& board, Order order, const Option& a, const Op
                        r.bound_proven ? (r.target_met ? "proven" : "proven, target not reached within the work limit")
                                       : "estimated, not proven",
                        r.method);
-    out += fmt::format("race length: mean {:.3f} rounds to the first finish, median {}\n", r.mean_rounds,
-                       r.median_resolved ? optional_int(r.median_rounds) : "unresolved");
+    if (std::isfinite(r.mean_rounds))
+        out += fmt::format("race length: mean {:.3f} rounds to the first finish, median {}\n", r.mean_rounds,
+                           r.median_resolved ? optional_int(r.median_rounds) : "unresolved");
+    else
+        out += "race length: no piece can ever finish\n";
+    if (r.error_bound() > 1e-12)
+        out += fmt::format("note: the target bound 1e-12 was not reached; {:.2g} is the bound proven.\n",
+                           r.error_bound());
     return out;
 }
 
