@@ -6,7 +6,7 @@
 #include <set>
 
 #include "certify/certificate.hpp"
-#include "certify/pool.hpp"
+#include "core/parallel.hpp"
 #include "chain/chain.hpp"
 #include "core/error.hpp"
 #include "race/duel.hpp"
@@ -148,7 +148,7 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
     std::vector<DuelResult> approx(m);
     std::vector<std::string> refusal(m);
     // Tasks 0..m-1 exact (the slow ones first), m..2m-1 floating point.
-    detail::parallel_for(2 * m, threads, [&](std::size_t t) {
+    parallel_for(2 * m, threads, [&](std::size_t t) {
         const auto& n = need[t % m];
         const Chain& ca = chains.at({n.length, by_name.at(n.a)});
         const Chain& cb = chains.at({n.length, by_name.at(n.b)});

@@ -8,7 +8,7 @@
 
 #include "certify/certificate.hpp"
 #include "certify/modular.hpp"
-#include "certify/pool.hpp"
+#include "core/parallel.hpp"
 #include "chain/chain.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
@@ -120,7 +120,7 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
         const std::size_t m = c.duels.size(), np = rep.primes.size();
         std::vector<DuelResult> approx(m);
         std::vector<std::optional<std::array<u64, 3>>> mod(m * np);
-        detail::parallel_for(m * (np + 1), threads, [&](std::size_t t) {
+        parallel_for(m * (np + 1), threads, [&](std::size_t t) {
             const CertDuel& d = c.duels[t % m];
             const Chain& ca = chains.at({d.length, d.a});
             const Chain& cb = chains.at({d.length, d.b});
