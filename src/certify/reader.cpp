@@ -74,6 +74,9 @@ Certificate parse_certificate(const std::string& text, const std::string& source
         j = json::parse(text);
     } catch (const json::parse_error& e) {
         throw InputError(fmt::format("{}: not valid JSON (byte {})", source, e.byte));
+    } catch (const json::exception& e) {
+        // A number too large for a double (e.g. 1e400) is out_of_range, not parse_error.
+        throw InputError(fmt::format("{}: not readable JSON ({})", source, e.what()));
     }
     if (!j.is_object()) throw InputError(fmt::format("{}: a certificate is a JSON object", source));
     std::string schema = r.str(j, "", "schema");
