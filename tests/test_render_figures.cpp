@@ -37,7 +37,7 @@ Tournament tournament_on(int length) {
 SweepResult small_sweep() {
     SweepSpec spec;
     spec.options = three();
-    spec.grid = parse_lengths("20..80", 1);
+    spec.grid = parse_lengths("100..130", 1);  // walker and trotter cross at 116 (docs/examples/crossover-116.md)
     spec.engine.threads = 1;
     return run_sweep(spec);
 }

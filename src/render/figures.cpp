@@ -198,6 +198,7 @@ svg::Element digraph_figure(const Tournament& t) {
                          "Condorcet winner: " + (t.condorcet_winner ? t.name(*t.condorcet_winner) : std::string("none")),
                          11)
                    .set("fill", ink));
+    legend.children.front().set("height", ly - 60 + 36);  // the frame ends below the last line
     root.add(std::move(legend));
     return root;
 }
@@ -403,7 +404,7 @@ svg::Element distribution_figure(const std::vector<std::string>& names, const st
     const double W = 760;
     Axes a{80, 52, 450, 280, 0, static_cast<double>(tmax), 0, pmax};
     const double legend_top = a.top + a.height + 62;
-    const double H = std::max(legend_top + 18.0 * static_cast<double>(n + 2), a.top + 60 + 34.0 * n + 40);
+    const double H = std::max(legend_top + 18.0 * static_cast<double>(n) + 4, a.top + 60 + 34.0 * static_cast<double>(n) + 40);
     svg::Element root = svg::document(W, H, "Finishing-time distribution",
                                       fmt::format("P(finishing on turn t) for {} options, turns 1 to {}; "
                                                   "the chance of never finishing beside it", n, tmax));

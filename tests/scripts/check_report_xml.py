@@ -114,7 +114,7 @@ def main():
             where = f"at {c['length']}" if c["length"] is not None else f"in {c['interval'][0]}..{c['interval'][1]}"
             want = f"crossover {where}: {c['a']} vs {c['b']}:"
             check(any(want in t for t in texts), f"sweep figure names {want!r}")
-        for name in sj["options"] if "options" in sj else tj["options"]:
+        for name in tj["options"]:  # the same scenario, so the same options
             check(name in joined, f"sweep figure names option {name!r}")
         for c in sj["cycles"]:
             check(any(t.startswith("cycle " + c["options"][0]) for t in texts), f"sweep figure lists cycle {c['options']}")
