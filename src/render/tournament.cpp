@@ -221,14 +221,19 @@ std::string tournament_text(const Tournament& t, const TournamentSource& src) {
         out += "Strongest cycle of any length: none; the digraph has no cycle.\n";
     if (!t.acyclic) {
         out += "Strongest cycle through each option:\n";
-        std::vector<std::vector<std::string>> through;
+        std::size_t wide_name = 0, wide_cycle = 0;
+        for (std::size_t i = 0; i < n; ++i) {
+            wide_name = std::max(wide_name, t.name(i).size());
+            if (t.strongest_through[i]) wide_cycle = std::max(wide_cycle, arrow_form(t, *t.strongest_through[i]).size());
+        }
         for (std::size_t i = 0; i < n; ++i) {
             const auto& c = t.strongest_through[i];
-            through.push_back({"  " + t.name(i), c ? arrow_form(t, *c) : std::string("on no cycle"),
-                               c ? "strength " + points(c->strength) : std::string("")});
+            std::string line = fmt::format("  {:<{}}  {:<{}}  {}", t.name(i), wide_name,
+                                           c ? arrow_form(t, *c) : std::string("on no cycle"), wide_cycle,
+                                           c ? "strength " + points(c->strength) : std::string(""));
+            while (!line.empty() && line.back() == ' ') line.pop_back();
+            out += line + "\n";
         }
-        std::string tab = table({"", "", ""}, through);
-        out += tab.substr(tab.find('\n') + 1);
     }
 
     out += "\nCounters (you choose first, I answer with the option that beats yours by the most):\n";
