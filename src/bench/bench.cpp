@@ -12,6 +12,7 @@
 #include "race/exact.hpp"
 #include "race/multi.hpp"
 #include "sweep/sweep.hpp"
+#include "tournament/tournament.hpp"
 
 namespace overshoot {
 
@@ -103,6 +104,20 @@ BenchReport run_bench() {
         // The fractions run to hundreds of digits: digest them, keep the decimals readable.
         return fmt::format("{} {:016x}", decimal_string(e.p_a_wins, 12),
                            fnv1a(1469598103934665603ULL, fraction_string(e.p_a_wins) + fraction_string(e.p_tie)));
+    });
+    timed("tournament NdS N 1..5 S 2..11 on 1000", [&] {
+        Board board = make_board(1000, Overshoot::stay, {});
+        std::vector<Option> options;
+        for (int n = 1; n <= 5; ++n)
+            for (int s = 2; s <= 11; ++s) options.push_back(parse_option(fmt::format("{}d{}", n, s)));
+        DuelSettings ds;
+        ds.want_median = false;
+        Tournament t = analyse(race_matrix(board, Order::simultaneous, options, ds));
+        std::string out = fmt::format("{} arcs {} cycles {} {}", t.arcs.size(), t.cycles.size(), t.cap_hit,
+                                      t.strongest_cycle ? digits(t.strongest_cycle->strength) : "none");
+        for (const auto& c : t.counters) out += c.counter ? fmt::format(" {}", *c.counter) : std::string(" -");
+        for (std::size_t i : t.equilibrium.support) out += fmt::format(" {}:{:.9f}", i, t.equilibrium.weight[i]);
+        return out;
     });
     return rep;
 }
