@@ -72,10 +72,7 @@ void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind ki
     cmd->add_option("--format", args->format, "json (the certificate, default), md or latex (for people)");
     cmd->add_option("--threads", args->threads, "threads to use (default: all cores)");
     cmd->callback([args, cmd] {
-        args->specs = cmd->remaining();
-        for (const auto& w : args->specs)
-            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
-                throw InputError(fmt::format("certify: unknown flag '{}' (see --help)", w));
+        args->specs = option_words(*cmd);
         run(*args);
     });
 }

@@ -129,10 +129,7 @@ const Registration reg(70, [](CLI::App& app) {
     cmd->add_option("--memory-limit", args->memory_mib, "memory cap in MiB for one computation (default 4096)");
     cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
     cmd->callback([args, cmd] {
-        args->family = cmd->remaining();
-        for (const auto& w : args->family)
-            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
-                throw InputError(fmt::format("hunt: unknown flag '{}' (see --help)", w));
+        args->family = option_words(*cmd);
         if (args->family.empty())
             throw InputError("hunt: give a family of options, e.g. '1..6d{4,6,8,10,12,20}' (docs/sweep.md)");
         run(*args);

@@ -127,10 +127,7 @@ const Registration reg(60, [](CLI::App& app) {
     cmd->add_option("--memory-limit", args->memory_mib, "memory cap in MiB for one computation (default 4096)");
     cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
     cmd->callback([args, cmd] {
-        args->specs = cmd->remaining();
-        for (const auto& w : args->specs)
-            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
-                throw InputError(fmt::format("sweep: unknown flag '{}' (see --help)", w));
+        args->specs = option_words(*cmd);
         run(*args);
     });
 });

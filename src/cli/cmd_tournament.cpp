@@ -119,10 +119,7 @@ const Registration reg(40, [](CLI::App& app) {
     cmd->add_flag("--exact", args->exact, "with --json: also P(row beats column) and margins as exact fractions (docs/exact.md)");
     cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)");
     cmd->callback([args, cmd] {
-        args->specs = cmd->remaining();
-        for (const auto& w : args->specs)
-            if (w.size() > 1 && w[0] == '-' && !(w[1] >= '0' && w[1] <= '9'))
-                throw InputError(fmt::format("tournament: unknown flag '{}' (see --help)", w));
+        args->specs = option_words(*cmd);
         run(*args);
     });
 });
