@@ -386,7 +386,7 @@ void run_series(std::vector<SeriesOption>& opts, std::vector<SeriesPair>& pairs,
                     p.close_turn[d] = t;
                 }
             }
-            while (p.closed[p.plo]) ++p.plo;
+            while (p.plo <= L && p.closed[p.plo]) ++p.plo;
             if (p.plo > L) {
                 p.active = false;
             } else if (t > p.cap) {
