@@ -36,10 +36,9 @@ const Real* probabilities(const Chain& c) {
 }  // namespace
 
 template <class Real>
-BasicSeries<Real>::BasicSeries(const Chain& c, int start, bool keep_stuck)
-    : c_(&c), v_(c.length, 0), next_(c.length, 0), keep_stuck_(keep_stuck) {
+BasicSeries<Real>::BasicSeries(const Chain& c, int start) : c_(&c), v_(c.length, 0), next_(c.length, 0) {
     lo_ = hi_ = start;
-    if (c.stuck[start] && !keep_stuck) {
+    if (c.stuck[start]) {
         stuck_ = 1;
         alive_ = 0;
     } else {
@@ -79,7 +78,7 @@ long double BasicSeries<Real>::step() {
             const Real x = m * prob[k];
             if (d == n) {
                 fin += x;
-            } else if (!keep_stuck_ && c.stuck[d]) {
+            } else if (c.stuck[d]) {
                 st += x;  // never finishes: set aside instead of carrying it
             } else {
                 next_[d] += x;

@@ -13,9 +13,9 @@ namespace overshoot {
 template <class Real>
 class BasicSeries {
 public:
-    // With keep_stuck, mass on stuck squares stays on its square (and counts as
-    // alive); otherwise it is set aside in stuck(), which is cheaper.
-    explicit BasicSeries(const Chain& chain, int start = 0, bool keep_stuck = false);
+    // Mass that lands on a stuck square is set aside in stuck(): it can never
+    // finish, and its square does not matter.
+    explicit BasicSeries(const Chain& chain, int start = 0);
 
     // Advances one turn; returns P(T = t) for the new t.
     long double step();
@@ -43,7 +43,6 @@ private:
     int lo_, hi_;
     int t_ = 0;
     long double finished_ = 0, stuck_ = 0, alive_ = 1, rounding_ = 0, gamma_, gamma_sum_;
-    bool keep_stuck_ = false;
     long double dropped_ = 0, sum_error_ = 0;
     Real trim_;  // mass below this at an edge of the support is dropped (and bounded)
     std::uint64_t work_ = 0;

@@ -258,7 +258,7 @@ RaceResult race(const std::vector<const Chain*>& chains, const std::vector<int>&
 
     std::vector<Series> ser;
     ser.reserve(k);
-    for (int j = 0; j < k; ++j) ser.emplace_back(*chains[j], starts[j], false);
+    for (int j = 0; j < k; ++j) ser.emplace_back(*chains[j], starts[j]);
     std::vector<long double> subset(1u << k, 0), w(1u << k, 0);
     std::vector<long double> f(k), s(k, 1), sp(k, 1), alive(k), stuck(k);
     RaceResult r;
@@ -359,7 +359,7 @@ RaceResult race(const std::vector<const Chain*>& chains, const std::vector<int>&
 }
 
 PieceTrack record_track(const Chain& chain, int start, long double threshold, int max_turns) {
-    Series s(chain, start, false);
+    Series s(chain, start);
     PieceTrack t;
     t.f.push_back(0);
     t.alive.push_back(s.alive());
