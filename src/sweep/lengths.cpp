@@ -297,6 +297,7 @@ struct SeriesPair {
     std::vector<double> close_bound;
     std::vector<int> close_turn;
     int plo = 1;
+    int last_turn = 0;  // the turn it closed: its bound depends on no other pair
     double cap = 0;
     bool active = true, failed = false;
 };
@@ -389,6 +390,7 @@ void run_series(std::vector<SeriesOption>& opts, std::vector<SeriesPair>& pairs,
             while (p.plo <= L && p.closed[p.plo]) ++p.plo;
             if (p.plo > L) {
                 p.active = false;
+                p.last_turn = t;
             } else if (t > p.cap) {
                 p.active = false;
                 p.failed = true;
@@ -428,7 +430,8 @@ void run_series(std::vector<SeriesOption>& opts, std::vector<SeriesPair>& pairs,
         if (p.failed) continue;
         const DistOption& a = *p.A->o;
         const DistOption& b = *p.B->o;
-        const double trim = 4.0 * (t + 2.0) * (t + 2.0) * trim_mass;
+        const double tp = p.last_turn;
+        const double trim = 4.0 * (tp + 2.0) * (tp + 2.0) * trim_mass;
         for (int d = 1; d <= L; ++d) {
             const double turns = p.close_turn[d];
             p.close_bound[d] = p.close_bound[d] * (1 + 1e-12) +
@@ -573,6 +576,32 @@ double series_turns_estimate(const Option& a, const Option& b, Overshoot rule, i
     DistOption db = build_dist(b, rule, std::min(max_length, b.max_move() + 1));
     da.L = db.L = max_length;
     return turns_estimate(da, db, 1e-15);
+}
+
+PairCost estimate_pair_cost(const Option& a, const Option& b, Overshoot rule, Order order, int max_length,
+                            const LengthSettings& s) {
+    DistOption da = build_dist(a, rule, std::min(max_length, a.max_move() + 1));
+    DistOption db = build_dist(b, rule, std::min(max_length, b.max_move() + 1));
+    da.L = db.L = max_length;
+    PairCost c;
+    c.turns = turns_estimate(da, db, s.close_target);
+    switch (s.method) {
+        case LengthMethod::series: c.series = true; break;
+        case LengthMethod::pairs: c.series = false; break;
+        case LengthMethod::automatic: c.series = c.turns <= 0.6 * max_length; break;
+    }
+    const Races r = races_for(order);
+    const double races = (r.sim ? 1 : 0) + (r.af ? 1 : 0) + (r.bf ? 1 : 0);
+    const double ka = static_cast<double>(da.mv.size()) + 1, kb = static_cast<double>(db.mv.size()) + 1;
+    const double L = max_length;
+    if (c.series) {
+        // apply2 steps two vectors per option; each race adds three terms per start.
+        c.step_work = c.turns * L * 2 * (ka + kb);
+        c.work = c.step_work + c.turns * L * 3 * races;
+    } else {
+        c.work = 1.3 * L * L * (ka + kb) * races;
+    }
+    return c;
 }
 
 std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Overshoot rule, Order order,

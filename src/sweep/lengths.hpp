@@ -85,6 +85,18 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
 // (bulk of the slower option plus the product tail), for choosing the method.
 double series_turns_estimate(const Option& a, const Option& b, Overshoot rule, int max_length);
 
+// A planning estimate for one pair on lengths up to max_length: the method the
+// settings pick (the automatic choice of all_lengths) and its work in
+// multiply-adds, with the series' option stepping counted for this pair alone.
+struct PairCost {
+    bool series = false;
+    double turns = 0;        // estimated turns of the series
+    double work = 0;         // whole pair
+    double step_work = 0;    // of that, stepping the two options (shared between pairs of a group)
+};
+PairCost estimate_pair_cost(const Option& a, const Option& b, Overshoot rule, Order order, int max_length,
+                            const LengthSettings& settings = {});
+
 std::string_view to_string(LengthMethod m);
 LengthMethod parse_length_method(std::string_view text);
 JumpAnchor parse_anchor(std::string_view text);

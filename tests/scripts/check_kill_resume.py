@@ -46,26 +46,35 @@ def read_checkpoint(path):
             fail(f"{path}: header cut short ({len(data)} bytes)")
         header.append(data[pos:nl].decode("ascii", "replace"))
         pos = nl + 1
-    if header[0] != "overshoot hunt checkpoint 1":
+    if header[0] != "overshoot hunt checkpoint 2":
         fail(f"{path}: unknown header {header[0]!r}")
     if not header[1].startswith("fingerprint ") or not header[2].startswith("lengths ") \
             or not header[3].startswith("records "):
         fail(f"{path}: malformed header {header!r}")
     lengths = int(header[2].split()[1])
     records = int(header[3].split()[1])
-    each = 12 + 16 * lengths
-    if len(data) - pos != records * each:
-        fail(f"{path}: {len(data) - pos} bytes of records, header promises {records} x {each}")
     out = {}
     for k in range(records):
-        rec = data[pos + k * each: pos + (k + 1) * each]
-        v, a, b = struct.unpack_from("<III", rec, 0)
-        values = struct.unpack_from(f"<{2 * lengths}d", rec, 12)
+        if len(data) - pos < 20:
+            fail(f"{path}: record {k} cut short")
+        v, a, b, first, count = struct.unpack_from("<IIIII", data, pos)
+        if first + count > lengths:
+            fail(f"{path}: record {k} holds lengths {first}..{first + count - 1} of {lengths}")
+        end = pos + 20 + 16 * count
+        if end > len(data):
+            fail(f"{path}: record {k} cut short")
+        values = struct.unpack_from(f"<{2 * count}d", data, pos + 20)
         if not a < b:
             fail(f"{path}: record {k} names pair {a},{b}")
         if any(x != x for x in values):
             fail(f"{path}: record {k} holds NaN")
-        out[(v, a, b)] = rec
+        # This hunt uses only the all-lengths engine: every record is whole.
+        if first != 0 or count != lengths:
+            fail(f"{path}: record {k} is partial ({first}, {count})")
+        out[(v, a, b)] = data[pos:end]
+        pos = end
+    if pos != len(data):
+        fail(f"{path}: {len(data) - pos} bytes after the last record")
     return lengths, out
 
 
