@@ -1,6 +1,6 @@
 #!/bin/sh
 # Fuzzes every parser with libFuzzer (clang, ASan + UBSan) for a fixed time.
-#   tools/fuzz.sh [TARGET...]      targets: option_spec scenario certificate matrix_csv
+#   tools/fuzz.sh [TARGET...]      targets: option_spec scenario certificate matrix_csv checkpoint
 #   FUZZ_SECONDS=60                time per target (default 60)
 # Builds tests/fuzz (a separate CMake project, so the main build never needs
 # clang) in build-fuzz, replays the kept regression inputs, then fuzzes each
@@ -30,7 +30,7 @@ install_missing() {
 }
 
 SECONDS_EACH="${FUZZ_SECONDS:-60}"
-TARGETS="${*:-option_spec scenario certificate matrix_csv}"
+TARGETS="${*:-option_spec scenario certificate matrix_csv checkpoint}"
 
 install_missing
 CC=clang CXX=clang++ cmake -S tests/fuzz -B build-fuzz >/dev/null

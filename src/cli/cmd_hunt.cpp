@@ -1,6 +1,7 @@
 // overshoot hunt FAMILY...: search a family of options over lengths and rule
 // variants for intransitive sets (cycles) of a wanted size and strength.
 #include <fmt/format.h>
+#include <sched.h>
 #include <unistd.h>
 
 #include <csignal>
@@ -8,6 +9,7 @@
 #include <memory>
 #include <mutex>
 #include <optional>
+#include <thread>
 
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
@@ -18,6 +20,10 @@
 #include "sweep/family.hpp"
 #include "sweep/hunt.hpp"
 
+#ifdef OVERSHOOT_HAVE_MPI
+#include "cluster/ranks.hpp"
+#endif
+
 namespace overshoot::cli {
 
 std::vector<std::string> split_list(const std::vector<std::string>& values);
@@ -26,11 +32,13 @@ std::vector<Variant> variants_from(const std::vector<std::string>& rules, const 
 
 namespace {
 
-std::atomic<bool> interrupted{false};
+std::atomic<bool> interrupted{false};  // stop computing (a signal, or --stop-after-pairs)
+std::atomic<bool> signalled{false};    // a signal came (SIGINT or SIGTERM)
 
-extern "C" void on_sigint(int) {
+extern "C" void on_signal(int sig) {
     interrupted.store(true);
-    std::signal(SIGINT, SIG_DFL);  // a second Ctrl-C ends the program at once
+    signalled.store(true);
+    std::signal(sig, SIG_DFL);  // a second Ctrl-C ends the program at once
 }
 
 struct HuntArgs {
@@ -50,7 +58,119 @@ struct HuntArgs {
     long long stop_after = -1;
     std::optional<long long> memory_mib;
     std::optional<std::string> output;
+    bool plan = false, plan_only = false, timings = false;
 };
+
+// Threads of one rank: --threads, else the cores this process may run on.
+// mpirun binds each rank to one core by default; a rank that is not bound
+// shares the machine's cores with the other ranks on it.
+int threads_for(const HuntArgs& a, int ranks_here) {
+    if (a.threads > 0) return a.threads;
+    const int hw = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+    cpu_set_t set;
+    if (sched_getaffinity(0, sizeof set, &set) == 0) {
+        const int allowed = CPU_COUNT(&set);
+        if (allowed > 0 && allowed < hw) return allowed;
+    }
+    return std::max(1, hw / std::max(1, ranks_here));
+}
+
+std::string plan_text(const HuntArgs& a, const HuntPlan& plan, const HuntSpec& spec, int threads) {
+    return a.json ? render::hunt_plan_json(plan, spec, threads).dump(2) + "\n"
+                  : render::hunt_plan_text(plan, spec, threads);
+}
+
+// Only the plan: nothing is computed.
+void print_plan_only(const HuntArgs& a, const HuntSpec& spec, int ranks, int threads) {
+    validate_hunt(spec);
+    const HuntStore store = load_hunt_store(spec);
+    HuntSpec s = spec;
+    s.engine.threads = threads;
+    const std::string out = plan_text(a, plan_hunt(s, store, ranks, threads), spec, threads);
+    if (a.output)
+        write_atomically(*a.output, out);
+    else
+        emit(out);
+}
+
+void finish(const HuntArgs& a, const HuntResult& r, const HuntSpec& spec) {
+    std::string out = a.json ? render::hunt_json(r, spec).dump(2) + "\n" : render::hunt_text(r, spec);
+    if (a.output)
+        write_atomically(*a.output, out);
+    else
+        emit(out);
+    if (!r.complete) {
+        std::fprintf(stderr, "overshoot: hunt interrupted: %zu of %zu pairs known%s\n", r.pairs_known, r.pairs_total,
+                     spec.checkpoint.empty() ? "" : "; continue with --resume");
+        exit_status() = 130;
+    }
+}
+
+#ifdef OVERSHOOT_HAVE_MPI
+std::string id_runs(const std::vector<std::size_t>& ids) {
+    std::string s;
+    for (std::size_t i = 0; i < ids.size();) {
+        std::size_t j = i;
+        while (j + 1 < ids.size() && ids[j + 1] == ids[j] + 1) ++j;
+        s += (s.empty() ? "" : ", ") + (j == i ? fmt::format("{}", ids[i]) : fmt::format("{}-{}", ids[i], ids[j]));
+        i = j + 1;
+    }
+    return s;
+}
+
+// Under mpirun: every rank runs this; rank 0 alone writes the output.
+void run_ranks(const HuntArgs& a, HuntSpec& spec) {
+    cluster::Ranks ranks;
+    if (a.plan_only) {
+        try {
+            if (ranks.rank() == 0) print_plan_only(a, spec, ranks.size(), threads_for(a, ranks.local_size()));
+        } catch (const InputError&) {
+            throw;  // rank 0 prints it; the others have nothing to say
+        }
+        return;
+    }
+    std::signal(SIGTERM, on_signal);
+    std::signal(SIGINT, on_signal);
+    const int threads = threads_for(a, ranks.local_size());
+    spec.engine.threads = threads;
+    if (a.plan && ranks.rank() == 0)
+        spec.on_plan = [&](const HuntPlan& p) {
+            std::fputs(render::hunt_plan_text(p, spec, threads).c_str(), stderr);
+            std::fflush(stderr);
+        };
+    cluster::RanksOutcome o;
+    try {
+        o = cluster::run_hunt_ranks(spec, ranks, signalled);
+    } catch (const cluster::RankError& e) {
+        std::fprintf(stderr, "overshoot: error: rank %d of %d: %s\n", ranks.rank(), ranks.size(), e.message.c_str());
+        std::fflush(stderr);
+        ranks.abort(e.status);
+    } catch (const InputError&) {
+        if (ranks.rank() == 0) throw;  // every rank has the same error: one line is enough
+        exit_status() = 2;
+        return;
+    }
+    if (o.signalled) {
+        if (o.root) {
+            std::string where = spec.checkpoint.empty()
+                                    ? std::string("no --checkpoint was given, so nothing is kept")
+                                    : fmt::format("{} of {} pairs are whole in the checkpoints beside {}; run the same "
+                                                  "command with --resume to redo only the unfinished shards",
+                                                  o.pairs_saved, o.plan.pairs_total, spec.checkpoint);
+            std::fprintf(stderr,
+                         "overshoot: the hunt stopped before the end (a signal, or a rank ended and the job is being "
+                         "torn down): unfinished shards %s of %zu; %s\n",
+                         o.unfinished.empty() ? "none" : id_runs(o.unfinished).c_str(), o.plan.shards.size(),
+                         where.c_str());
+            std::fflush(stderr);
+        }
+        cluster::Ranks::leave(o.root ? 1 : 143);
+    }
+    if (!o.root) return;
+    if (a.timings) std::fputs(render::rank_times_text(o.busy_seconds, o.shard_count, o.threads).c_str(), stderr);
+    finish(a, o.result, spec);
+}
+#endif
 
 void run(const HuntArgs& a) {
     if (a.threads < 0) throw InputError("--threads must be 0 (all cores) or more");
@@ -78,6 +198,22 @@ void run(const HuntArgs& a) {
     spec.resume = a.resume;
     spec.stop_after_pairs = a.stop_after;
     spec.cancel = &interrupted;
+#ifdef OVERSHOOT_HAVE_MPI
+    if (cluster::launched_by_mpirun()) {
+        run_ranks(a, spec);
+        return;
+    }
+#endif
+    if (a.timings) throw InputError("--timings reports the time of each MPI rank: run the hunt under mpirun");
+    if (a.plan_only) {
+        print_plan_only(a, spec, 1, threads_for(a, 1));
+        return;
+    }
+    if (a.plan)
+        spec.on_plan = [&](const HuntPlan& p) {
+            std::fputs(render::hunt_plan_text(p, spec, threads_for(a, 1)).c_str(), stderr);
+            std::fflush(stderr);
+        };
     const bool bar = ::isatty(2) != 0;
     std::mutex bar_mutex;
     if (bar)
@@ -89,20 +225,13 @@ void run(const HuntArgs& a) {
                          std::string(width - filled, '.').c_str(), done, total);
             std::fflush(stderr);
         };
-    std::signal(SIGINT, on_sigint);
+    std::signal(SIGINT, on_signal);
+    std::signal(SIGTERM, on_signal);
     HuntResult r = run_hunt(spec);
     std::signal(SIGINT, SIG_DFL);
+    std::signal(SIGTERM, SIG_DFL);
     if (bar) std::fprintf(stderr, "\r%60s\r", "");
-    std::string out = a.json ? render::hunt_json(r, spec).dump(2) + "\n" : render::hunt_text(r, spec);
-    if (a.output)
-        write_atomically(*a.output, out);
-    else
-        emit(out);
-    if (!r.complete) {
-        std::fprintf(stderr, "overshoot: hunt interrupted: %zu of %zu pairs known%s\n", r.pairs_known, r.pairs_total,
-                     spec.checkpoint.empty() ? "" : "; continue with --resume");
-        exit_status() = 130;
-    }
+    finish(a, r, spec);
 }
 
 const Registration reg(70, [](CLI::App& app) {
@@ -128,6 +257,9 @@ const Registration reg(70, [](CLI::App& app) {
                     "stop as if interrupted after this many new pairs (for batches and tests)");
     cmd->add_option("--memory-limit", args->memory_mib, "memory cap in MiB for one computation (default 4096)");
     cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
+    cmd->add_flag("--plan", args->plan, "print the shard plan (shards, estimated work, ranks) on stderr before the work");
+    cmd->add_flag("--plan-only", args->plan_only, "print the shard plan and stop: nothing is computed");
+    cmd->add_flag("--timings", args->timings, "under mpirun: print each rank's time and the imbalance on stderr");
     cmd->callback([args, cmd] {
         args->family = option_words(*cmd);
         if (args->family.empty())

@@ -282,4 +282,99 @@ json hunt_json(const HuntResult& r, const HuntSpec& spec) {
     return j;
 }
 
+namespace {
+
+std::string shard_lengths(const HuntShard& sh, const std::vector<int>& lengths) {
+    if (sh.count == 0) return "none";
+    const int lo = lengths[sh.first], hi = lengths[sh.first + sh.count - 1];
+    return lo == hi ? fmt::format("{}", lo) : fmt::format("{}..{}", lo, hi);
+}
+
+std::string shard_pairs(const HuntShard& sh, const HuntSpec& spec) {
+    if (sh.pairs.size() == 1)
+        return fmt::format("{} v {}", spec.options[sh.pairs[0].a].name, spec.options[sh.pairs[0].b].name);
+    return fmt::format("{} pairs", sh.pairs.size());
+}
+
+double total_cost(const HuntPlan& plan) {
+    double t = 0;
+    for (const auto& sh : plan.shards) t += sh.cost;
+    return t;
+}
+
+}  // namespace
+
+std::string hunt_plan_text(const HuntPlan& plan, const HuntSpec& spec, int threads) {
+    const std::vector<int> lengths = spec.grid.lengths();
+    const double total = total_cost(plan);
+    std::string out = fmt::format("hunt plan: {} shards over {} rank{} ({} thread{} each); {} of {} pairs already known\n",
+                                  plan.shards.size(), plan.ranks, plan.ranks == 1 ? "" : "s", threads,
+                                  threads == 1 ? "" : "s", plan.pairs_known, plan.pairs_total);
+    out += "estimated work in multiply-adds (a model, not a measurement; docs/cluster.md)\n";
+    std::vector<std::vector<std::string>> rows;
+    for (const auto& sh : plan.shards) {
+        std::vector<std::string> row{fmt::format("{}", sh.id), sh.method, shard_pairs(sh, spec),
+                                     shard_lengths(sh, lengths), fmt::format("{:.3g}", sh.cost),
+                                     total > 0 ? fmt::format("{:.1f}%", 100 * sh.cost / total) : "-",
+                                     fmt::format("{}", sh.rank)};
+        if (spec.variants.size() > 1) row.insert(row.begin() + 1, variant_text(spec.variants[sh.variant]));
+        rows.push_back(row);
+    }
+    std::vector<std::string> header{"shard", "method", "pairs", "lengths", "work", "share", "rank"};
+    if (spec.variants.size() > 1) header.insert(header.begin() + 1, "rules");
+    if (!rows.empty()) out += table(header, rows);
+    std::vector<std::vector<std::string>> ranks;
+    double mean = 0;
+    for (double c : plan.rank_cost) mean += c / static_cast<double>(plan.rank_cost.size());
+    for (std::size_t r = 0; r < plan.rank_cost.size(); ++r) {
+        std::size_t n = 0;
+        for (const auto& sh : plan.shards) n += sh.rank == static_cast<int>(r);
+        ranks.push_back({fmt::format("{}", r), fmt::format("{}", n), fmt::format("{:.3g}", plan.rank_cost[r]),
+                         mean > 0 ? fmt::format("{:.3f}", plan.rank_cost[r] / mean) : "-"});
+    }
+    out += table({"rank", "shards", "work", "over mean"}, ranks);
+    return out;
+}
+
+json hunt_plan_json(const HuntPlan& plan, const HuntSpec& spec, int threads) {
+    json j = document("hunt-plan", 1);
+    j["ranks"] = plan.ranks;
+    j["threads_per_rank"] = threads;
+    j["pairs_total"] = plan.pairs_total;
+    j["pairs_known"] = plan.pairs_known;
+    const std::vector<int> lengths = spec.grid.lengths();
+    json shards = json::array();
+    for (const auto& sh : plan.shards) {
+        json pairs = json::array();
+        for (const auto& p : sh.pairs) pairs.push_back({spec.options[p.a].name, spec.options[p.b].name});
+        shards.push_back({{"id", sh.id},
+                          {"overshoot", std::string(to_string(spec.variants[sh.variant].rule))},
+                          {"order", std::string(to_string(spec.variants[sh.variant].order))},
+                          {"method", sh.method},
+                          {"pairs", pairs},
+                          {"lengths", sh.count ? json::array({lengths[sh.first], lengths[sh.first + sh.count - 1]})
+                                               : json(nullptr)},
+                          {"estimated_work", sh.cost},
+                          {"rank", sh.rank}});
+    }
+    j["shards"] = shards;
+    j["rank_work"] = plan.rank_cost;
+    return j;
+}
+
+std::string rank_times_text(const std::vector<double>& busy, const std::vector<std::size_t>& shards, int threads) {
+    double mean = 0, most = 0;
+    for (double b : busy) {
+        mean += b / static_cast<double>(busy.size());
+        most = std::max(most, b);
+    }
+    std::string out = fmt::format("ranks: {}, {} thread{} each; time computing shards per rank:", busy.size(), threads,
+                                  threads == 1 ? "" : "s");
+    for (std::size_t r = 0; r < busy.size(); ++r)
+        out += fmt::format(" {}: {:.2f} s ({} shards){}", r, busy[r], r < shards.size() ? shards[r] : 0,
+                           r + 1 < busy.size() ? ";" : "");
+    out += fmt::format("\nimbalance (largest over mean): {:.3f}\n", mean > 0 ? most / mean : 1.0);
+    return out;
+}
+
 }  // namespace overshoot::render

@@ -16,4 +16,11 @@ std::string sweep_csv(const SweepResult& r);
 std::string hunt_text(const HuntResult& r, const HuntSpec& spec);
 nlohmann::json hunt_json(const HuntResult& r, const HuntSpec& spec);
 
+// The shard plan of a hunt (`hunt --plan`): one row per shard, then per rank.
+std::string hunt_plan_text(const HuntPlan& plan, const HuntSpec& spec, int threads);
+nlohmann::json hunt_plan_json(const HuntPlan& plan, const HuntSpec& spec, int threads);
+// What each rank spent computing its shards, and the imbalance (largest over mean).
+std::string rank_times_text(const std::vector<double>& busy_seconds, const std::vector<std::size_t>& shards,
+                            int threads);
+
 }  // namespace overshoot::render

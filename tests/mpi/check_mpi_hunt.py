@@ -1,0 +1,171 @@
+#!/usr/bin/python3
+"""A hunt run as MPI ranks gives the bytes of a one-process run; a rank killed
+mid-run fails the whole run cleanly, and --resume completes it.
+
+Usage: check_mpi_hunt.py BINARY MPIEXEC
+
+Checks (issue: hunts beyond one machine):
+- `mpirun -np 1`, `-np 2` and `-np 3` (oversubscribed on this 2-core machine)
+  print byte-identical JSON and text to the plain run of the same hunt, on a
+  hunt with an all-lengths variant (shards of pairs) and a bounce variant
+  (shards of length blocks);
+- `--plan-only` under `-np 3` lists shards for all three ranks and computes
+  nothing (no output file, well under the run's time);
+- SIGKILL of rank 1 once it has saved its checkpoint: mpirun exits non-zero,
+  no output file is left, the rank files hold the finished work; the same
+  command with --resume (on 2 ranks, then again from scratch on 3 ranks to
+  show the checkpoints do not depend on the rank count) redoes only what is
+  missing and prints exactly the plain run's bytes; the rank files are gone
+  after a finished run.
+The reference is the plain one-process run of the same binary: the MPI path
+must not change a single byte (common practice for parallel reductions, no
+published source).
+"""
+import json
+import os
+import signal
+import subprocess
+import sys
+import tempfile
+import time
+
+BINARY, MPIEXEC = sys.argv[1], sys.argv[2]
+ENV = dict(os.environ, OMPI_ALLOW_RUN_AS_ROOT="1", OMPI_ALLOW_RUN_AS_ROOT_CONFIRM="1",
+           OMPI_MCA_rmaps_base_oversubscribe="1")
+SHORT = ["hunt", "1..3d{4,6,8}", "--lengths", "10..180", "--overshoot", "stay,bounce,pass", "--threads", "1"]
+LONG = ["hunt", "1..5d{4,6,8,10}", "--lengths", "10..1800", "--threads", "1", "--json"]
+
+
+def fail(msg):
+    print("FAIL:", msg)
+    sys.exit(1)
+
+
+def mpi(np, args, **kw):
+    return [MPIEXEC, "--oversubscribe", "-np", str(np), BINARY] + args
+
+
+def run(cmd, cwd, timeout=600):
+    p = subprocess.run(cmd, cwd=cwd, env=ENV, capture_output=True, timeout=timeout)
+    return p.returncode, p.stdout, p.stderr.decode(errors="replace")
+
+
+def same_output(d):
+    for fmt in (["--json"], []):
+        st, ref, err = run([BINARY] + SHORT + fmt, d)
+        if st != 0:
+            fail(f"plain run: exit {st}: {err}")
+        if fmt:
+            doc = json.loads(ref)
+            if not doc["complete"] or doc["totals"]["distinct_sets"] == 0:
+                fail("the reference hunt should be complete and find cycles")
+        for np in ((1, 2, 3) if fmt else (2,)):
+            st, out, err = run(mpi(np, SHORT + fmt), d)
+            if st != 0:
+                fail(f"-np {np}: exit {st}: {err}")
+            if out != ref:
+                fail(f"-np {np} {' '.join(fmt)}: output differs from the plain run")
+            print(f"-np {np} {' '.join(fmt) or '(text)'}: {len(out)} bytes, identical to the plain run")
+
+
+def plan_only(d):
+    t0 = time.monotonic()
+    st, out, err = run(mpi(3, SHORT + ["--plan-only", "--json"]), d)
+    if st != 0:
+        fail(f"--plan-only: exit {st}: {err}")
+    plan = json.loads(out)
+    ranks = {s["rank"] for s in plan["shards"]}
+    if plan["ranks"] != 3 or ranks != {0, 1, 2}:
+        fail(f"--plan-only on 3 ranks: ranks {plan['ranks']}, shards on {sorted(ranks)}")
+    methods = {s["method"] for s in plan["shards"]}
+    if "board" not in methods:
+        fail(f"the bounce variant should be split into length blocks: methods {methods}")
+    covered = sum(len(s["pairs"]) for s in plan["shards"] if s["method"] != "board")
+    if covered != 2 * 36:  # two all-lengths variants (stay, pass) of 36 pairs each
+        fail(f"the all-lengths shards cover {covered} pairs, expected 72")
+    print(f"--plan-only: {len(plan['shards'])} shards over 3 ranks in {time.monotonic() - t0:.1f} s")
+
+
+def rank_pids(mpirun_pid):
+    """Pids of the ranks started by this mpirun, by rank."""
+    out = {}
+    for pid in os.listdir("/proc"):
+        if not pid.isdigit():
+            continue
+        try:
+            with open(f"/proc/{pid}/stat") as f:
+                ppid = int(f.read().rsplit(")", 1)[1].split()[1])
+            if ppid != mpirun_pid:
+                continue
+            with open(f"/proc/{pid}/environ", "rb") as f:
+                env = dict(e.split(b"=", 1) for e in f.read().split(b"\0") if b"=" in e)
+            if b"OMPI_COMM_WORLD_RANK" in env:
+                out[int(env[b"OMPI_COMM_WORLD_RANK"])] = int(pid)
+        except (OSError, ValueError, IndexError):
+            continue
+    return out
+
+
+def kill_and_resume(d):
+    st, ref, err = run([BINARY] + LONG, d)
+    if st != 0:
+        fail(f"plain long run: exit {st}: {err}")
+    ck = os.path.join(d, "hunt.ckpt")
+    out = os.path.join(d, "out.json")
+    args = LONG + ["--checkpoint", ck, "--output", out]
+    p = subprocess.Popen(mpi(2, args), cwd=d, env=ENV, stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    t0 = time.monotonic()
+    while not os.path.exists(ck + ".rank1"):
+        if p.poll() is not None:
+            fail(f"the hunt ended (exit {p.returncode}) before rank 1 saved a checkpoint: make it longer")
+        if time.monotonic() - t0 > 120:
+            p.kill()
+            fail("rank 1 saved no checkpoint within 120 s")
+        time.sleep(0.05)
+    pids = rank_pids(p.pid)
+    if 1 not in pids:
+        p.kill()
+        fail(f"cannot find rank 1 among the children of mpirun: {pids}")
+    os.kill(pids[1], signal.SIGKILL)
+    killed_at = time.monotonic() - t0
+    try:
+        _, err = p.communicate(timeout=60)
+    except subprocess.TimeoutExpired:
+        p.kill()
+        fail("mpirun did not end within 60 s of a rank's death")
+    err = err.decode(errors="replace")
+    if p.returncode == 0:
+        fail("the run with a killed rank exited 0")
+    if os.path.exists(out):
+        fail("the run with a killed rank left an output file")
+    leftovers = [f for f in os.listdir(d) if f.startswith("out.json")]
+    if leftovers:
+        fail(f"temporary output files left: {leftovers}")
+    print(f"rank 1 killed at {killed_at:.1f} s: mpirun exit {p.returncode}, no output file")
+    if "unfinished shards" in err:
+        print("  rank 0 said: " + next(l for l in err.splitlines() if "unfinished shards" in l))
+    # Resume on 3 ranks: only what is missing is planned.
+    st, _, err = run(mpi(3, args + ["--resume", "--plan"]), d)
+    if st != 0:
+        fail(f"resume: exit {st}: {err}")
+    known = [l for l in err.splitlines() if "pairs already known" in l]
+    if not known or known[0].split(";")[1].strip().startswith("0 of"):
+        fail(f"the resumed run should start from the saved pairs: {known}")
+    print("  resume: " + known[0].split(";")[1].strip())
+    if open(out, "rb").read() != ref:
+        fail("the resumed run's output differs from the plain run")
+    rank_files = [f for f in os.listdir(d) if ".rank" in f]
+    if rank_files:
+        fail(f"rank files left after a finished run: {rank_files}")
+    print("  resumed output identical to the plain run; rank files merged and removed")
+
+
+def main():
+    with tempfile.TemporaryDirectory(prefix="overshoot-mpi-") as d:
+        same_output(d)
+        plan_only(d)
+        kill_and_resume(d)
+    print("PASS")
+
+
+main()
