@@ -11,6 +11,8 @@ Checks (issue: hunts beyond one machine):
   (shards of length blocks);
 - `--plan-only` under `-np 3` lists shards for all three ranks and computes
   nothing (no output file, well under the run's time);
+- bad input prints one line once; a rank over its memory limit ends the job
+  with its own line and leaves no output file;
 - SIGKILL of rank 1 once it has saved its checkpoint: mpirun exits non-zero,
   no output file is left, the rank files hold the finished work; the same
   command with --resume (on 2 ranks, then again from scratch on 3 ranks to
@@ -160,10 +162,27 @@ def kill_and_resume(d):
     print("  resumed output identical to the plain run; rank files merged and removed")
 
 
+def errors(d):
+    """Bad input: one line, once. A rank that fails: its line, the whole job ends, no output."""
+    st, _, err = run(mpi(2, ["hunt", "1..3d{4,6}", "--lengths", "10..20", "--cycle-length", "2"]), d)
+    lines = [l for l in err.splitlines() if l.startswith("overshoot:")]
+    if st == 0 or lines != ["overshoot: error: --cycle-length 2: a cycle has at least 3 options"]:
+        fail(f"bad input under 2 ranks: exit {st}, lines {lines}")
+    out = os.path.join(d, "limit.txt")
+    st, _, err = run(mpi(2, ["hunt", "1..6d{4,20}", "--lengths", "10..2000", "--memory-limit", "2",
+                             "--threads", "1", "--output", out]), d)
+    if st == 0 or "overshoot: error: rank" not in err or "memory limit" not in err:
+        fail(f"a rank over its memory limit: exit {st}, stderr {err!r}")
+    if os.path.exists(out):
+        fail("a failed run left an output file")
+    print("errors: bad input said once; a failing rank ends the job with its reason")
+
+
 def main():
     with tempfile.TemporaryDirectory(prefix="overshoot-mpi-") as d:
         same_output(d)
         plan_only(d)
+        errors(d)
         kill_and_resume(d)
     print("PASS")
 
