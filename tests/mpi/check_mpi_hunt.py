@@ -43,12 +43,22 @@ def fail(msg):
     sys.exit(1)
 
 
-def mpi(np, args, **kw):
+# Under the sanitizer build (tools/sanitize.sh) the ranks keep AddressSanitizer
+# and UBSan but not the leak check: Open MPI 4.1 leaves allocations of its own
+# at MPI_Finalize, some in components it has already unloaded, which no
+# suppression can name. Plain runs keep the leak check.
+MPI_ENV = dict(ENV)
+if "detect_leaks=1" in MPI_ENV.get("ASAN_OPTIONS", ""):
+    MPI_ENV["ASAN_OPTIONS"] = MPI_ENV["ASAN_OPTIONS"].replace("detect_leaks=1", "detect_leaks=0")
+
+
+def mpi(np, args):
     return [MPIEXEC, "--oversubscribe", "-np", str(np), BINARY] + args
 
 
 def run(cmd, cwd, timeout=600):
-    p = subprocess.run(cmd, cwd=cwd, env=ENV, capture_output=True, timeout=timeout)
+    env = MPI_ENV if cmd[0] == MPIEXEC else ENV
+    p = subprocess.run(cmd, cwd=cwd, env=env, capture_output=True, timeout=timeout)
     return p.returncode, p.stdout, p.stderr.decode(errors="replace")
 
 
@@ -115,7 +125,7 @@ def kill_and_resume(d):
     ck = os.path.join(d, "hunt.ckpt")
     out = os.path.join(d, "out.json")
     args = LONG + ["--checkpoint", ck, "--output", out]
-    p = subprocess.Popen(mpi(2, args), cwd=d, env=ENV, stdout=subprocess.PIPE, stderr=subprocess.PIPE)
+    p = subprocess.Popen(mpi(2, args), cwd=d, env=MPI_ENV, stdout=subprocess.PIPE, stderr=subprocess.PIPE)
     t0 = time.monotonic()
     while not os.path.exists(ck + ".rank1"):
         if p.poll() is not None:
