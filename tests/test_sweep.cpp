@@ -52,6 +52,20 @@ void require_agrees(const LengthOutcome& o, const DuelResult& r, const std::stri
     REQUIRE(o.bound < 1e-9);
 }
 
+HuntSpec hunt_spec(const char* family, const char* lengths, std::vector<Variant> variants, int threads) {
+    HuntSpec spec;
+    spec.options = parse_family(family);
+    spec.grid = parse_lengths(lengths, 1);
+    spec.variants = std::move(variants);
+    spec.engine.threads = threads;
+    return spec;
+}
+
+// Everything a hunt prints, text and JSON.
+std::string rendered(const HuntResult& r, const HuntSpec& spec) {
+    return render::hunt_text(r, spec) + render::hunt_json(r, spec).dump();
+}
+
 std::string temp_path(const char* name) {
     return std::string("/tmp/overshoot-test-sweep-") + std::to_string(::getpid()) + "-" + name;
 }
@@ -311,12 +325,9 @@ TEST_CASE("a hunt lists each cycle once and agrees with the tournament's cycles"
 }
 
 TEST_CASE("an interrupted hunt resumed gives byte-identical output", "[sweep]") {
-    HuntSpec spec;
-    spec.options = parse_family("1..4d{4,6,8}");
-    spec.grid = parse_lengths("10..120", 1);
-    spec.variants = {{Overshoot::stay, Order::simultaneous}, {Overshoot::pass, Order::coin}};
-    spec.engine.threads = 2;
-    const std::string whole = render::hunt_text(run_hunt(spec), spec) + render::hunt_json(run_hunt(spec), spec).dump();
+    const HuntSpec spec = hunt_spec("1..4d{4,6,8}", "10..120",
+                                    {{Overshoot::stay, Order::simultaneous}, {Overshoot::pass, Order::coin}}, 2);
+    const std::string whole = rendered(run_hunt(spec), spec);
     const std::string path = temp_path("hunt.ckpt");
     HuntSpec part = spec;
     part.checkpoint = path;
@@ -332,7 +343,7 @@ TEST_CASE("an interrupted hunt resumed gives byte-identical output", "[sweep]") 
     again.resume = true;
     HuntResult second = run_hunt(again);
     REQUIRE(second.complete);
-    const std::string resumed = render::hunt_text(second, spec) + render::hunt_json(second, spec).dump();
+    const std::string resumed = rendered(second, spec);
     REQUIRE(resumed == whole);
     // A checkpoint of another hunt is refused.
     HuntSpec other = again;
@@ -366,11 +377,8 @@ TEST_CASE("bad sweep and hunt input is refused with a clear error", "[sweep]") {
 }
 
 TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks", "[sweep]") {
-    HuntSpec spec;
-    spec.options = parse_family("1..3d{4,6,8}");
-    spec.grid = parse_lengths("10..60", 1);
-    spec.variants = {{Overshoot::stay, Order::simultaneous}, {Overshoot::bounce, Order::simultaneous}};
-    spec.engine.threads = 1;
+    const HuntSpec spec = hunt_spec("1..3d{4,6,8}", "10..60",
+                                    {{Overshoot::stay, Order::simultaneous}, {Overshoot::bounce, Order::simultaneous}}, 1);
     HuntStore store(spec.options.size(), spec.variants.size(), spec.grid.lengths().size());
     // Some cells already known: a whole pair of the all-lengths variant, a block of the bounce one.
     CheckpointRecord whole;
@@ -430,14 +438,13 @@ TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks",
 }
 
 TEST_CASE("shards computed apart and merged give the bytes of one run", "[sweep]") {
-    HuntSpec spec;
-    spec.options = parse_family("1..3d{4,6,8}");
-    spec.grid = parse_lengths("10..90", 1);
-    spec.variants = {{Overshoot::stay, Order::simultaneous}, {Overshoot::bounce, Order::simultaneous},
-                     {Overshoot::pass, Order::coin}};
-    spec.engine.threads = 2;
+    const HuntSpec spec = hunt_spec("1..3d{4,6,8}", "10..90",
+                                    {{Overshoot::stay, Order::simultaneous},
+                                     {Overshoot::bounce, Order::simultaneous},
+                                     {Overshoot::pass, Order::coin}},
+                                    2);
     const HuntResult one = run_hunt(spec);
-    const std::string whole = render::hunt_text(one, spec) + render::hunt_json(one, spec).dump();
+    const std::string whole = rendered(one, spec);
     REQUIRE(one.complete);
     REQUIRE(one.distinct > 0);
     const std::uint64_t fp = hunt_fingerprint(spec);
@@ -455,7 +462,7 @@ TEST_CASE("shards computed apart and merged give the bytes of one run", "[sweep]
         }
         const HuntResult split = search_cycles(spec, merged);
         INFO("ranks " << ranks);
-        REQUIRE(render::hunt_text(split, spec) + render::hunt_json(split, spec).dump() == whole);
+        REQUIRE(rendered(split, spec) == whole);
     }
 }
 

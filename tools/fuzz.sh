@@ -15,24 +15,12 @@ PACKAGES="build-essential cmake pkg-config libboost-graph-dev libeigen3-dev libg
 libglpk-dev libtomlplusplus-dev nlohmann-json3-dev libfmt-dev \
 clang libclang-rt-14-dev llvm"
 
-install_missing() {
-    missing=""
-    for p in $PACKAGES; do
-        dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed" || missing="$missing $p"
-    done
-    if [ -n "$missing" ]; then
-        echo "installing:$missing"
-        SUDO=""
-        [ "$(id -u)" -ne 0 ] && SUDO="sudo"
-        $SUDO apt-get update -qq
-        DEBIAN_FRONTEND=noninteractive $SUDO apt-get install -y -qq $missing >/dev/null
-    fi
-}
+. tools/packages.sh
 
 SECONDS_EACH="${FUZZ_SECONDS:-60}"
 TARGETS="${*:-option_spec scenario certificate matrix_csv checkpoint}"
 
-install_missing
+install_missing $PACKAGES
 CC=clang CXX=clang++ cmake -S tests/fuzz -B build-fuzz >/dev/null
 cmake --build build-fuzz -j"$(nproc)"
 
