@@ -12,15 +12,13 @@
 #include "core/error.hpp"
 #include "render/certificate.hpp"
 
+#include "support.hpp"
+
 using namespace overshoot;
 
 namespace {
 
-std::vector<Option> opts(std::initializer_list<const char*> specs) {
-    std::vector<Option> out;
-    for (const char* s : specs) out.push_back(parse_option(s));
-    return out;
-}
+using testing::opts;
 
 Claim claim_of(ClaimKind k, const std::vector<Option>& o, int at = 0) {
     Claim c;

@@ -15,20 +15,14 @@
 #include <string>
 #include <vector>
 
+#include "support.hpp"
+
 namespace {
 
 namespace fs = std::filesystem;
-
-struct Run {
-    int status = -1;
-    std::string out, err;
-    int err_lines() const {
-        int n = 0;
-        for (char c : err) n += c == '\n';
-        return n;
-    }
-    nlohmann::json json() const { return nlohmann::json::parse(out); }
-};
+using overshoot::testing::Run;
+using overshoot::testing::run_shell;
+using overshoot::testing::slurp;
 
 std::string quote(const std::string& s) {
     std::string q = "'";
@@ -39,13 +33,6 @@ std::string quote(const std::string& s) {
             q += c;
     }
     return q + "'";
-}
-
-std::string slurp(const fs::path& p) {
-    std::ifstream in(p, std::ios::binary);
-    std::ostringstream ss;
-    ss << in.rdbuf();
-    return ss.str();
 }
 
 // A private scratch folder for this test process.
@@ -67,18 +54,7 @@ fs::path write_file(const std::string& name, const std::string& text) {
 Run run(const std::vector<std::string>& args) {
     std::string cmd = quote(OVERSHOOT_BINARY);
     for (const auto& a : args) cmd += " " + quote(a);
-    const fs::path err = scratch() / "stderr.txt";
-    cmd += " 2>" + quote(err.string());
-    Run r;
-    FILE* p = ::popen(cmd.c_str(), "r");
-    REQUIRE(p != nullptr);
-    char buf[4096];
-    std::size_t n;
-    while ((n = std::fread(buf, 1, sizeof buf, p)) > 0) r.out.append(buf, n);
-    int st = ::pclose(p);
-    r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
-    r.err = slurp(err);
-    return r;
+    return run_shell(cmd, scratch() / "stderr.txt");
 }
 
 // Bad input: exit status 2, exactly one line on stderr that mentions `what`,

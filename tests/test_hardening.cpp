@@ -26,6 +26,7 @@
 #include "core/selfcheck.hpp"
 #include "race/duel.hpp"
 #include "race/multi.hpp"
+#include "support.hpp"
 #include "tournament/matrix_csv.hpp"
 
 using namespace overshoot;
@@ -50,33 +51,16 @@ struct MemoryCap {
     ~MemoryCap() { limits::set_memory_bytes(limits::default_memory_bytes); }
 };
 
-struct Run {
-    int status = -1;
-    std::string out, err;
-};
-
 fs::path scratch() {
     fs::path d = fs::temp_directory_path() / ("overshoot-hardening-" + std::to_string(::getpid()));
     fs::create_directories(d);
     return d;
 }
 
+using testing::Run;
+
 Run run(const std::string& args) {
-    const fs::path err = scratch() / "stderr.txt";
-    std::string cmd = std::string("'") + OVERSHOOT_BINARY + "' " + args + " 2>'" + err.string() + "'";
-    Run r;
-    FILE* p = ::popen(cmd.c_str(), "r");
-    REQUIRE(p != nullptr);
-    char buf[4096];
-    std::size_t n;
-    while ((n = std::fread(buf, 1, sizeof buf, p)) > 0) r.out.append(buf, n);
-    int st = ::pclose(p);
-    r.status = WIFEXITED(st) ? WEXITSTATUS(st) : -1;
-    std::ifstream in(err);
-    std::ostringstream ss;
-    ss << in.rdbuf();
-    r.err = ss.str();
-    return r;
+    return testing::run_shell(std::string("'") + OVERSHOOT_BINARY + "' " + args, scratch() / "stderr.txt");
 }
 
 std::vector<Chain> chains_of(const Board& b, std::initializer_list<const char*> specs) {

@@ -23,15 +23,13 @@
 #include "tournament/cycles.hpp"
 #include "tournament/tournament.hpp"
 
+#include "support.hpp"
+
 using namespace overshoot;
 
 namespace {
 
-std::vector<Option> opts(std::initializer_list<const char*> specs) {
-    std::vector<Option> out;
-    for (const char* s : specs) out.push_back(parse_option(s));
-    return out;
-}
+using testing::opts;
 
 std::vector<PairRequest> all_pairs(std::size_t n) {
     std::vector<PairRequest> r;

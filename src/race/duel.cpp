@@ -9,12 +9,14 @@
 #include <cmath>
 #include <mutex>
 #include <thread>
+#include <type_traits>
 
 #include "chain/absorption.hpp"
 #include "chain/series.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
 #include "core/selfcheck.hpp"
+#include "race/closure.hpp"
 #include "race/pairs.hpp"
 
 namespace overshoot {
@@ -126,47 +128,20 @@ std::optional<Tally> zone_method(const Chain& a, const Chain& b, bool a_first, l
     const auto& va = sa.mass();
     const auto& vb = sb.mass();
     const long double t0 = static_cast<long double>(sa.turn());
-    long double cw = 0, cl = 0, ct = 0, ce = 0;
     const int alo = std::max(za, sa.low()), blo = std::max(zb, sb.low());
-    for (int i = alo; i <= sa.high(); ++i) {
-        if (va[i] == 0) continue;
-        long double w = 0, l = 0, ti = 0, e = 0;
-        for (int j = blo; j <= sb.high(); ++j) {
-            if (vb[j] == 0) continue;
-            const PairValue& c = pt.at(i, j);
-            w += vb[j] * c.win;
-            l += vb[j] * c.loss;
-            ti += vb[j] * c.tie;
-            e += vb[j] * (c.rounds + t0 * (c.win + c.loss + c.tie));
-        }
-        cw += va[i] * w;
-        cl += va[i] * l;
-        ct += va[i] * ti;
-        ce += va[i] * e;
-    }
-    // One piece stuck for good: the other wins exactly when it finishes.
-    long double fin_a = 0, fin_b = 0, time_a = 0, time_b = 0;
-    for (int i = alo; i <= sa.high(); ++i) {
-        fin_a += va[i] * ha.h[i];
-        time_a += va[i] * (ha.g[i] + t0 * ha.h[i]);
-    }
-    for (int j = blo; j <= sb.high(); ++j) {
-        fin_b += vb[j] * hb.h[j];
-        time_b += vb[j] * (hb.g[j] + t0 * hb.h[j]);
-    }
-    cw += sb.stuck() * fin_a;
-    cl += sa.stuck() * fin_b;
-    ce += sb.stuck() * time_a + sa.stuck() * time_b;
-    r.win += cw;
-    r.loss += cl;
-    r.tie += ct;
-    r.rounds += ce;
+    const ZoneMass<typename std::decay_t<decltype(va)>::value_type> ma{va, alo, sa.high(), sa.stuck(), ha},
+        mb{vb, blo, sb.high(), sb.stuck(), hb};
+    ZoneSums c = weigh_zones(ma, mb, t0, true, [&](int i, int j) { return pt.at(i, j); });
+    add_stuck_terms(c, ma, mb, t0);
+    r.win += c.win;
+    r.loss += c.loss;
+    r.tie += c.tie;
+    r.rounds += c.rounds;
     r.neither = std::max(0.0L, 1.0L - r.win - r.loss - r.tie);
     const int support = (sa.high() - sa.low() + 1) + (sb.high() - sb.low() + 1);
     // The absorption pass has the same depth structure as the pair programme.
     r.bound += sa.rounding_bound() + sb.rounding_bound() + pt.relative_rounding +
-               static_cast<long double>(2 * n + 2) * gamma_ld(std::max(a.max_move, b.max_move) + 4) +
-               gamma_ld(support + 2 * sa.turn() + 8);
+               closure_rounding(n, std::max(a.max_move, b.max_move), support, sa.turn());
     r.method = "zone";
     // The median of R may lie past the prefix: keep stepping the two series.
     if (!r.median_done && r.win + r.loss + r.tie >= 0.5L) {

@@ -13,6 +13,7 @@
 #include "core/parallel.hpp"
 #include "core/selfcheck.hpp"
 #include "race/duel.hpp"
+#include "race/closure.hpp"
 #include "race/pairs.hpp"
 
 namespace overshoot {
@@ -154,9 +155,7 @@ double estimate(const std::vector<Tracer>& tracers, const std::vector<Chain>& ch
     return cost;
 }
 
-struct Sums {
-    long double win = 0, loss = 0, tie = 0, rounds = 0;
-};
+using Sums = ZoneSums;
 
 // Rounds 1..H of one ordered race from the two traces.
 Sums prefix(const Trace& a, const Trace& b, int horizon, bool a_first) {
@@ -184,62 +183,27 @@ Sums closure(const Chain& ca, const Chain& cb, const Trace& a, const Trace& b, i
     Sums r;
     const int n = ca.length;
     const long double t0 = horizon;
+    // A piece with no square left on the board (lo == n) adds nothing.
+    const ZoneMass<long double> ma{a.v, a.lo, a.lo < n ? a.hi : a.lo - 1, a.stuck, a.absorption},
+        mb{b.v, b.lo, b.lo < n ? b.hi : b.lo - 1, b.stuck, b.absorption};
     if (a.lo < n && b.lo < n) {
         if (outcome_programme_bound(ca, cb, a.lo, b.lo) <= 3e-13L) {
             OutcomeTable ot = outcome_programme(ca, cb, a.lo, b.lo, a_first);
             rounding += ot.relative_rounding;
-            for (int i = a.lo; i <= a.hi; ++i) {
-                if (a.v[i] == 0) continue;
-                long double w = 0, l = 0, ti = 0;
-                for (int j = b.lo; j <= b.hi; ++j) {
-                    if (b.v[j] == 0) continue;
-                    const std::size_t k = ot.index(i, j);
-                    w += b.v[j] * ot.win[k];
-                    l += b.v[j] * ot.loss[k];
-                    ti += b.v[j] * ot.tie[k];
-                }
-                r.win += a.v[i] * w;
-                r.loss += a.v[i] * l;
-                r.tie += a.v[i] * ti;
-            }
+            r = weigh_zones(ma, mb, t0, false, [&](int i, int j) {
+                const std::size_t k = ot.index(i, j);
+                return PairValue{ot.win[k], ot.loss[k], ot.tie[k], 0};
+            });
             r.rounds = std::nanl("");
         } else {
             PairTable pt = pair_programme(ca, cb, a.lo, b.lo, a_first);
             rounding += pt.relative_rounding;
-            for (int i = a.lo; i <= a.hi; ++i) {
-                if (a.v[i] == 0) continue;
-                long double w = 0, l = 0, ti = 0, e = 0;
-                for (int j = b.lo; j <= b.hi; ++j) {
-                    if (b.v[j] == 0) continue;
-                    const PairValue& c = pt.at(i, j);
-                    w += b.v[j] * c.win;
-                    l += b.v[j] * c.loss;
-                    ti += b.v[j] * c.tie;
-                    e += b.v[j] * (c.rounds + t0 * (c.win + c.loss + c.tie));
-                }
-                r.win += a.v[i] * w;
-                r.loss += a.v[i] * l;
-                r.tie += a.v[i] * ti;
-                r.rounds += a.v[i] * e;
-            }
+            r = weigh_zones(ma, mb, t0, true, [&](int i, int j) { return pt.at(i, j); });
         }
     }
-    // One piece stuck for good: the other wins exactly when it finishes.
-    auto lone = [&](const Trace& x, long double& fin, long double& time) {
-        for (int i = x.lo; i <= x.hi; ++i) {
-            fin += x.v[i] * x.absorption.h[i];
-            time += x.v[i] * (x.absorption.g[i] + t0 * x.absorption.h[i]);
-        }
-    };
-    long double fa = 0, ta = 0, fb = 0, tb = 0;
-    if (a.lo < n) lone(a, fa, ta);
-    if (b.lo < n) lone(b, fb, tb);
-    r.win += b.stuck * fa;
-    r.loss += a.stuck * fb;
-    r.rounds += b.stuck * ta + a.stuck * tb;
-    const int m = std::max(ca.max_move, cb.max_move);
-    rounding += static_cast<long double>(2 * n + 2) * gamma_ld(m + 4) +
-                gamma_ld((a.hi - a.lo + 1) + (b.hi - b.lo + 1) + 2 * horizon + 8);
+    add_stuck_terms(r, ma, mb, t0);
+    rounding += closure_rounding(n, std::max(ca.max_move, cb.max_move), (a.hi - a.lo + 1) + (b.hi - b.lo + 1),
+                                 horizon);
     return r;
 }
 
