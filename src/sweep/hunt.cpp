@@ -303,13 +303,15 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
         }
         // Board by board: every pair with an unknown length, in blocks of lengths.
         std::vector<PairRequest> pairs;
-        double per_len = 0;  // cost per (length^2): a duel walks about length^2 / mean cells
+        // Measured (docs/cluster.md): a board-by-board duel costs about
+        // 1e4 length (1 + (k_A + k_B) / 40) multiply-adds' worth of time per race.
+        double per_len = 0;
         for (std::size_t i = 0; i < n; ++i)
             for (std::size_t j = i + 1; j < n; ++j) {
                 if (store.known(v, i, j)) continue;
                 pairs.push_back({i, j});
-                const double mu = std::max(0.25, std::min(spec.options[i].mean(), spec.options[j].mean()));
-                per_len += (row_terms(spec.options[i]) + row_terms(spec.options[j])) * races_of(var.order) / mu;
+                per_len += 1e4 * (1 + (row_terms(spec.options[i]) + row_terms(spec.options[j])) / 40) *
+                           races_of(var.order);
             }
         if (pairs.empty()) continue;
         std::vector<std::size_t> need;
@@ -320,12 +322,11 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
                     break;
                 }
         auto cost_of = [&](std::size_t k) {
-            const double len = lengths[k];
-            return per_len * len * (len + 50);
+            return per_len * lengths[k];
         };
         double total = 0;
         for (std::size_t k : need) total += cost_of(k);
-        const std::size_t blocks = std::max<std::size_t>(1, std::min<std::size_t>(need.size() / (2 * threads), 8 * ranks));
+        const std::size_t blocks = std::max<std::size_t>(1, std::min<std::size_t>(need.size() / (2 * threads), 16 * ranks));
         const double target = total / static_cast<double>(blocks);
         HuntShard cur;
         auto flush = [&] {
