@@ -11,6 +11,7 @@
 #include <filesystem>
 #include <fstream>
 #include <nlohmann/json.hpp>
+#include <set>
 #include <sstream>
 #include <string>
 #include <vector>
@@ -363,4 +364,31 @@ TEST_CASE("cli bad input: an invalid board in a scenario names the file", "[cli]
     expect_one_line_error({"profile", "1d6", "--scenario", f.string()}, "loop");
     // The same jumps from flags replace it, so a good --jump list is accepted.
     CHECK(run({"profile", "1d6", "--scenario", f.string(), "--jump", "3:5"}).status == 0);
+}
+
+TEST_CASE("cli: hunt --plan-only plans for --ranks without computing", "[cli]") {
+    const fs::path out = scratch() / "plan.json";
+    Run r = run({"hunt", "1..3d{4,6,8}", "--lengths", "10..200", "--overshoot", "stay,bounce", "--plan-only",
+                 "--ranks", "3", "--json", "--output", out.string()});
+    INFO(r.err);
+    REQUIRE(r.status == 0);
+    const auto plan = nlohmann::json::parse(slurp(out));
+    REQUIRE(plan["schema"] == "overshoot.hunt-plan/1");
+    REQUIRE(plan["ranks"] == 3);
+    REQUIRE(plan["pairs_total"] == 72);
+    REQUIRE(plan["pairs_known"] == 0);
+    std::set<int> ranks;
+    std::size_t all_lengths_pairs = 0;
+    for (const auto& s : plan["shards"]) {
+        ranks.insert(s["rank"].get<int>());
+        if (s["method"] != "board") all_lengths_pairs += s["pairs"].size();
+        if (s["method"] == "board") REQUIRE(s["overshoot"] == "bounce");
+    }
+    REQUIRE(ranks == std::set<int>{0, 1, 2});
+    REQUIRE(all_lengths_pairs == 36);  // every pair of the stay variant in exactly one shard
+    REQUIRE(plan["rank_work"].size() == 3);
+    // The plan alone: --plan-only without a result; --ranks only with --plan-only.
+    expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--ranks", "3"}, "--plan-only");
+    expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--plan-only", "--ranks", "0"}, "--ranks");
+    expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--timings"}, "mpirun");
 }

@@ -59,6 +59,7 @@ struct HuntArgs {
     std::optional<long long> memory_mib;
     std::optional<std::string> output;
     bool plan = false, plan_only = false, timings = false;
+    std::optional<int> ranks;  // --plan-only outside mpirun: plan for this many ranks
 };
 
 // Threads of one rank: --threads, else the cores this process may run on.
@@ -121,12 +122,11 @@ std::string id_runs(const std::vector<std::size_t>& ids) {
 // Under mpirun: every rank runs this; rank 0 alone writes the output.
 void run_ranks(const HuntArgs& a, HuntSpec& spec) {
     cluster::Ranks ranks;
-    if (a.plan_only) {
-        try {
-            if (ranks.rank() == 0) print_plan_only(a, spec, ranks.size(), threads_for(a, ranks.local_size()));
-        } catch (const InputError&) {
-            throw;  // rank 0 prints it; the others have nothing to say
-        }
+    // Rank 0 alone plans and speaks; the others have nothing to add.
+    if (a.ranks || a.plan_only) {
+        if (ranks.rank() != 0) return;
+        if (a.ranks) throw InputError("--ranks is for --plan-only outside mpirun; under mpirun the ranks are mpirun's");
+        print_plan_only(a, spec, ranks.size(), threads_for(a, ranks.local_size()));
         return;
     }
     std::signal(SIGTERM, on_signal);
@@ -205,8 +205,10 @@ void run(const HuntArgs& a) {
     }
 #endif
     if (a.timings) throw InputError("--timings reports the time of each MPI rank: run the hunt under mpirun");
+    if (a.ranks && !a.plan_only) throw InputError("--ranks goes with --plan-only (under mpirun the ranks are mpirun's)");
+    if (a.ranks && (*a.ranks < 1 || *a.ranks > 100000)) throw InputError("--ranks must be between 1 and 100000");
     if (a.plan_only) {
-        print_plan_only(a, spec, 1, threads_for(a, 1));
+        print_plan_only(a, spec, a.ranks.value_or(1), threads_for(a, 1));
         return;
     }
     if (a.plan)
@@ -259,6 +261,7 @@ const Registration reg(70, [](CLI::App& app) {
     cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
     cmd->add_flag("--plan", args->plan, "print the shard plan (shards, estimated work, ranks) on stderr before the work");
     cmd->add_flag("--plan-only", args->plan_only, "print the shard plan and stop: nothing is computed");
+    cmd->add_option("--ranks", args->ranks, "with --plan-only outside mpirun: plan for this many ranks");
     cmd->add_flag("--timings", args->timings, "under mpirun: print each rank's time and the imbalance on stderr");
     cmd->callback([args, cmd] {
         args->family = option_words(*cmd);
