@@ -198,6 +198,20 @@ void run(const HuntArgs& a) {
     spec.resume = a.resume;
     spec.stop_after_pairs = a.stop_after;
     spec.cancel = &interrupted;
+    // A progress bar on a terminal: the cells (pair x length) this process has
+    // to compute. Under mpirun stderr goes through mpirun, so there is none.
+    const bool bar = ::isatty(2) != 0;
+    std::mutex bar_mutex;
+    if (bar)
+        spec.progress = [&](std::size_t done, std::size_t total) {
+            std::lock_guard<std::mutex> lock(bar_mutex);
+            const int width = 30;
+            const int filled = total ? static_cast<int>(width * done / total) : width;
+            std::fprintf(stderr, "\r[%s%s] %3d%%", std::string(filled, '#').c_str(),
+                         std::string(width - filled, '.').c_str(),
+                         total ? static_cast<int>(100 * done / total) : 100);
+            std::fflush(stderr);
+        };
 #ifdef OVERSHOOT_HAVE_MPI
     if (cluster::launched_by_mpirun()) {
         run_ranks(a, spec);
@@ -214,17 +228,6 @@ void run(const HuntArgs& a) {
     if (a.plan)
         spec.on_plan = [&](const HuntPlan& p) {
             std::fputs(render::hunt_plan_text(p, spec, threads_for(a, 1)).c_str(), stderr);
-            std::fflush(stderr);
-        };
-    const bool bar = ::isatty(2) != 0;
-    std::mutex bar_mutex;
-    if (bar)
-        spec.progress = [&](std::size_t done, std::size_t total) {
-            std::lock_guard<std::mutex> lock(bar_mutex);
-            const int width = 30;
-            const int filled = total ? static_cast<int>(width * done / total) : width;
-            std::fprintf(stderr, "\r[%s%s] %zu/%zu pairs", std::string(filled, '#').c_str(),
-                         std::string(width - filled, '.').c_str(), done, total);
             std::fflush(stderr);
         };
     std::signal(SIGINT, on_signal);

@@ -398,8 +398,14 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
         save(out);
         last_save = std::chrono::steady_clock::now();
     };
+    // Progress in cells (pair x length) of this rank's work, counting what `out` knew before.
+    std::size_t cells_done = 0, cells_total = 0;
+    for (std::size_t c : out.have_count) cells_done += c;
+    cells_total = cells_done;
+    for (const auto& sh : plan.shards)
+        if (sh.rank == rank) cells_total += sh.pairs.size() * sh.count;
     auto progress = [&] {
-        if (spec.progress) spec.progress(out.pairs_known(), out.nv * out.np);
+        if (spec.progress) spec.progress(cells_done, cells_total);
     };
     // Stores one pair's lengths first .. first+count-1 (of `by_length`, indexed by length).
     auto take = [&](std::size_t v, std::size_t a, std::size_t b, std::size_t first, std::size_t count,
@@ -418,6 +424,7 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
             r.bound.push_back(o.error_bound() + 4 * std::ldexp(1.0, -53));
         }
         out.put(r, "hunt");
+        cells_done += count;
         ++fresh;
         progress();
         if (spec.stop_after_pairs >= 0 && fresh >= spec.stop_after_pairs) {

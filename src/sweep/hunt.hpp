@@ -32,7 +32,7 @@ struct HuntSpec {
     bool resume = false;                        // continue from `checkpoint`
     std::atomic<bool>* cancel = nullptr;
     long long stop_after_pairs = -1;            // stop (as if interrupted) after this many new pairs
-    std::function<void(std::size_t done, std::size_t total)> progress;  // pairs; may be empty
+    std::function<void(std::size_t done, std::size_t total)> progress;  // cells (pair x length) of this process; may be empty
     std::function<void(const struct HuntPlan&)> on_plan;                 // called before any work; may be empty
 };
 
