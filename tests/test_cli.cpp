@@ -391,4 +391,11 @@ TEST_CASE("cli: hunt --plan-only plans for --ranks without computing", "[cli]") 
     expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--ranks", "3"}, "--plan-only");
     expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--plan-only", "--ranks", "0"}, "--ranks");
     expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--timings"}, "mpirun");
+    // Progress lines for logs: at least the closing one, and nothing on stdout but the result.
+    Run p = run({"hunt", "1..3d{4,6}", "--lengths", "10..60", "--progress-every", "1000", "--json"});
+    REQUIRE(p.status == 0);
+    REQUIRE(p.err_lines() == 1);
+    REQUIRE(p.err.rfind("overshoot: hunt: 100.0% of its cells after ", 0) == 0);
+    REQUIRE(p.json()["complete"] == true);
+    expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--progress-every", "0"}, "--progress-every");
 }

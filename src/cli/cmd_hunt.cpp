@@ -4,7 +4,9 @@
 #include <sched.h>
 #include <unistd.h>
 
+#include <chrono>
 #include <csignal>
+#include <functional>
 #include <cstdio>
 #include <memory>
 #include <mutex>
@@ -60,11 +62,27 @@ struct HuntArgs {
     std::optional<std::string> output;
     bool plan = false, plan_only = false, timings = false;
     std::optional<int> ranks;  // --plan-only outside mpirun: plan for this many ranks
+    std::optional<double> progress_every;  // seconds between progress lines
 };
 
 // Threads of one rank: --threads, else the cores this process may run on.
 // mpirun binds each rank to one core by default; a rank that is not bound
 // shares the machine's cores with the other ranks on it.
+// One line on stderr at most every `seconds` (and at 100%), for logs of long runs.
+std::function<void(std::size_t, std::size_t)> progress_lines(double seconds, std::string who) {
+    auto last = std::make_shared<std::chrono::steady_clock::time_point>(std::chrono::steady_clock::now());
+    auto start = *last;
+    return [=](std::size_t done, std::size_t total) {
+        const auto now = std::chrono::steady_clock::now();
+        if (done < total && std::chrono::duration<double>(now - *last).count() < seconds) return;
+        *last = now;
+        std::fprintf(stderr, "overshoot: hunt%s: %.1f%% of %s cells after %.0f s\n", who.c_str(),
+                     total ? 100.0 * static_cast<double>(done) / static_cast<double>(total) : 100.0,
+                     who.empty() ? "its" : "this rank's", std::chrono::duration<double>(now - start).count());
+        std::fflush(stderr);
+    };
+}
+
 int threads_for(const HuntArgs& a, int ranks_here) {
     if (a.threads > 0) return a.threads;
     const int hw = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
@@ -133,6 +151,7 @@ void run_ranks(const HuntArgs& a, HuntSpec& spec) {
     std::signal(SIGINT, on_signal);
     const int threads = threads_for(a, ranks.local_size());
     spec.engine.threads = threads;
+    if (a.progress_every) spec.progress = progress_lines(*a.progress_every, fmt::format(" rank {}", ranks.rank()));
     if (a.plan && ranks.rank() == 0)
         spec.on_plan = [&](const HuntPlan& p) {
             std::fputs(render::hunt_plan_text(p, spec, threads).c_str(), stderr);
@@ -200,9 +219,12 @@ void run(const HuntArgs& a) {
     spec.cancel = &interrupted;
     // A progress bar on a terminal: the cells (pair x length) this process has
     // to compute. Under mpirun stderr goes through mpirun, so there is none.
-    const bool bar = ::isatty(2) != 0;
+    const bool bar = ::isatty(2) != 0 && !a.progress_every;
     std::mutex bar_mutex;
-    if (bar)
+    if (a.progress_every) {
+        if (!(*a.progress_every > 0)) throw InputError("--progress-every must be a positive number of seconds");
+        spec.progress = progress_lines(*a.progress_every, "");
+    } else if (bar)
         spec.progress = [&](std::size_t done, std::size_t total) {
             std::lock_guard<std::mutex> lock(bar_mutex);
             const int width = 30;
@@ -265,6 +287,8 @@ const Registration reg(70, [](CLI::App& app) {
     cmd->add_flag("--plan", args->plan, "print the shard plan (shards, estimated work, ranks) on stderr before the work");
     cmd->add_flag("--plan-only", args->plan_only, "print the shard plan and stop: nothing is computed");
     cmd->add_option("--ranks", args->ranks, "with --plan-only outside mpirun: plan for this many ranks");
+    cmd->add_option("--progress-every", args->progress_every,
+                    "print a progress line on stderr every this many seconds (under mpirun: one per rank)");
     cmd->add_flag("--timings", args->timings, "under mpirun: print each rank's time and the imbalance on stderr");
     cmd->callback([args, cmd] {
         args->family = option_words(*cmd);

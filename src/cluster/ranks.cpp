@@ -139,7 +139,6 @@ RanksOutcome run_hunt_ranks(const HuntSpec& spec, Ranks& ranks, const std::atomi
     out.threads = spec.engine.threads > 0 ? spec.engine.threads : std::max(1, hw / std::max(1, ranks.local_size()));
     HuntSpec local = spec;
     local.engine.threads = out.threads;
-    if (!out.root) local.progress = nullptr;
     const std::uint64_t fp = hunt_fingerprint(spec);
 
     // Rank 0 reads the checkpoints and plans; everyone gets the plan (or the error).
