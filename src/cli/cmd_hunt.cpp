@@ -1,7 +1,6 @@
 // overshoot hunt FAMILY...: search a family of options over lengths and rule
 // variants for intransitive sets (cycles) of a wanted size and strength.
 #include <fmt/format.h>
-#include <sched.h>
 #include <unistd.h>
 
 #include <chrono>
@@ -11,13 +10,13 @@
 #include <memory>
 #include <mutex>
 #include <optional>
-#include <thread>
 
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
 #include "core/io.hpp"
 #include "core/limits.hpp"
+#include "core/parallel.hpp"
 #include "render/sweep.hpp"
 #include "sweep/family.hpp"
 #include "sweep/hunt.hpp"
@@ -65,9 +64,6 @@ struct HuntArgs {
     std::optional<double> progress_every;  // seconds between progress lines
 };
 
-// Threads of one rank: --threads, else the cores this process may run on.
-// mpirun binds each rank to one core by default; a rank that is not bound
-// shares the machine's cores with the other ranks on it.
 // One line on stderr at most every `seconds` (and at 100%), for logs of long runs.
 std::function<void(std::size_t, std::size_t)> progress_lines(double seconds, std::string who) {
     auto last = std::make_shared<std::chrono::steady_clock::time_point>(std::chrono::steady_clock::now());
@@ -83,20 +79,25 @@ std::function<void(std::size_t, std::size_t)> progress_lines(double seconds, std
     };
 }
 
-int threads_for(const HuntArgs& a, int ranks_here) {
-    if (a.threads > 0) return a.threads;
-    const int hw = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-    cpu_set_t set;
-    if (sched_getaffinity(0, sizeof set, &set) == 0) {
-        const int allowed = CPU_COUNT(&set);
-        if (allowed > 0 && allowed < hw) return allowed;
-    }
-    return std::max(1, hw / std::max(1, ranks_here));
+// Threads of one process: --threads, else its share of the cores (core/parallel.hpp).
+int threads_for(const HuntArgs& a, int processes_here) {
+    return a.threads > 0 ? a.threads : threads_per_process(processes_here);
 }
 
-std::string plan_text(const HuntArgs& a, const HuntPlan& plan, const HuntSpec& spec, int threads) {
-    return a.json ? render::hunt_plan_json(plan, spec, threads).dump(2) + "\n"
-                  : render::hunt_plan_text(plan, spec, threads);
+// The result or the plan: to --output (atomically) or stdout.
+void deliver(const HuntArgs& a, const std::string& out) {
+    if (a.output)
+        write_atomically(*a.output, out);
+    else
+        emit(out);
+}
+
+// `--plan`: the plan on stderr before the work.
+std::function<void(const HuntPlan&)> plan_to_stderr(const HuntSpec& spec, int threads) {
+    return [&spec, threads](const HuntPlan& p) {
+        std::fputs(render::hunt_plan_text(p, spec, threads).c_str(), stderr);
+        std::fflush(stderr);
+    };
 }
 
 // Only the plan: nothing is computed.
@@ -105,19 +106,13 @@ void print_plan_only(const HuntArgs& a, const HuntSpec& spec, int ranks, int thr
     const HuntStore store = load_hunt_store(spec);
     HuntSpec s = spec;
     s.engine.threads = threads;
-    const std::string out = plan_text(a, plan_hunt(s, store, ranks, threads), spec, threads);
-    if (a.output)
-        write_atomically(*a.output, out);
-    else
-        emit(out);
+    const HuntPlan plan = plan_hunt(s, store, ranks, threads);
+    deliver(a, a.json ? render::hunt_plan_json(plan, spec, threads).dump(2) + "\n"
+                      : render::hunt_plan_text(plan, spec, threads));
 }
 
 void finish(const HuntArgs& a, const HuntResult& r, const HuntSpec& spec) {
-    std::string out = a.json ? render::hunt_json(r, spec).dump(2) + "\n" : render::hunt_text(r, spec);
-    if (a.output)
-        write_atomically(*a.output, out);
-    else
-        emit(out);
+    deliver(a, a.json ? render::hunt_json(r, spec).dump(2) + "\n" : render::hunt_text(r, spec));
     if (!r.complete) {
         std::fprintf(stderr, "overshoot: hunt interrupted: %zu of %zu pairs known%s\n", r.pairs_known, r.pairs_total,
                      spec.checkpoint.empty() ? "" : "; continue with --resume");
@@ -152,11 +147,7 @@ void run_ranks(const HuntArgs& a, HuntSpec& spec) {
     const int threads = threads_for(a, ranks.local_size());
     spec.engine.threads = threads;
     if (a.progress_every) spec.progress = progress_lines(*a.progress_every, fmt::format(" rank {}", ranks.rank()));
-    if (a.plan && ranks.rank() == 0)
-        spec.on_plan = [&](const HuntPlan& p) {
-            std::fputs(render::hunt_plan_text(p, spec, threads).c_str(), stderr);
-            std::fflush(stderr);
-        };
+    if (a.plan && ranks.rank() == 0) spec.on_plan = plan_to_stderr(spec, threads);
     cluster::RanksOutcome o;
     try {
         o = cluster::run_hunt_ranks(spec, ranks, signalled);
@@ -247,11 +238,7 @@ void run(const HuntArgs& a) {
         print_plan_only(a, spec, a.ranks.value_or(1), threads_for(a, 1));
         return;
     }
-    if (a.plan)
-        spec.on_plan = [&](const HuntPlan& p) {
-            std::fputs(render::hunt_plan_text(p, spec, threads_for(a, 1)).c_str(), stderr);
-            std::fflush(stderr);
-        };
+    if (a.plan) spec.on_plan = plan_to_stderr(spec, threads_for(a, 1));
     std::signal(SIGINT, on_signal);
     std::signal(SIGTERM, on_signal);
     HuntResult r = run_hunt(spec);

@@ -9,10 +9,10 @@
 #include <chrono>
 #include <cstdint>
 #include <cstdlib>
-#include <filesystem>
 #include <thread>
 
 #include "core/error.hpp"
+#include "core/parallel.hpp"
 #include "sweep/checkpoint.hpp"
 
 namespace overshoot::cluster {
@@ -79,8 +79,6 @@ HuntPlan plan_from_json(const nlohmann::json& j) {
     return p;
 }
 
-std::string rank_file(const std::string& checkpoint, int rank) { return fmt::format("{}.rank{}", checkpoint, rank); }
-
 // Shards with a cell that no checkpoint on disk (nor `mine`) holds.
 std::vector<std::size_t> unfinished_shards(const HuntSpec& spec, const HuntPlan& plan, const HuntStore& mine,
                                            std::size_t& pairs_saved) {
@@ -89,8 +87,7 @@ std::vector<std::size_t> unfinished_shards(const HuntSpec& spec, const HuntPlan&
         HuntSpec s = spec;
         s.resume = true;
         try {
-            const HuntStore saved = load_hunt_store(s);
-            for (const auto& r : saved.checkpoint(0).records) disk.put(r, spec.checkpoint);
+            disk.merge(load_hunt_store(s).checkpoint(0), spec.checkpoint);
         } catch (const InputError&) {
             // Nothing readable on disk: only this rank's own work counts.
         }
@@ -135,8 +132,7 @@ RanksOutcome run_hunt_ranks(const HuntSpec& spec, Ranks& ranks, const std::atomi
     validate_hunt(spec);  // the same verdict on every rank: no message crosses yet
     RanksOutcome out;
     out.root = ranks.rank() == 0;
-    const int hw = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-    out.threads = spec.engine.threads > 0 ? spec.engine.threads : std::max(1, hw / std::max(1, ranks.local_size()));
+    out.threads = spec.engine.threads > 0 ? spec.engine.threads : threads_per_process(ranks.local_size());
     HuntSpec local = spec;
     local.engine.threads = out.threads;
     const std::uint64_t fp = hunt_fingerprint(spec);
@@ -147,8 +143,7 @@ RanksOutcome run_hunt_ranks(const HuntSpec& spec, Ranks& ranks, const std::atomi
     if (out.root) {
         try {
             store = load_hunt_store(spec);
-            if (!spec.resume && !spec.checkpoint.empty())
-                for (const auto& f : rank_checkpoint_files(spec.checkpoint)) std::filesystem::remove(f);
+            if (!spec.resume) remove_rank_checkpoint_files(spec.checkpoint);
             out.plan = plan_hunt(local, store, ranks.size(), out.threads);
             const auto cbor = nlohmann::json::to_cbor(plan_json(out.plan));
             message = "P" + std::string(cbor.begin(), cbor.end());
@@ -168,7 +163,7 @@ RanksOutcome run_hunt_ranks(const HuntSpec& spec, Ranks& ranks, const std::atomi
     // This rank's shards, into its own store and its own checkpoint file.
     HuntStore fresh(spec.options.size(), spec.variants.size(), spec.grid.lengths().size());
     std::function<void(const HuntStore&)> save;
-    const std::string mine = spec.checkpoint.empty() ? std::string() : rank_file(spec.checkpoint, ranks.rank());
+    const std::string mine = spec.checkpoint.empty() ? std::string() : rank_checkpoint_file(spec.checkpoint, ranks.rank());
     if (!mine.empty()) save = [&](const HuntStore& s) { save_checkpoint(mine, s.checkpoint(fp)); };
     const auto t0 = std::chrono::steady_clock::now();
     try {
@@ -209,7 +204,7 @@ RanksOutcome run_hunt_ranks(const HuntSpec& spec, Ranks& ranks, const std::atomi
     out.shard_count.assign(ranks.size(), 0);
     out.busy_seconds[0] = busy;
     out.shard_count[0] = my_shards;
-    for (const auto& r : fresh.checkpoint(fp).records) store.put(r, "rank 0");
+    store.merge(fresh.checkpoint(fp), "rank 0");
     for (int got = 1; got < ranks.size(); ++got) {
         MPI_Status st;
         int ready = 0;
@@ -237,7 +232,7 @@ RanksOutcome run_hunt_ranks(const HuntSpec& spec, Ranks& ranks, const std::atomi
     if (!spec.checkpoint.empty()) {
         save_checkpoint(spec.checkpoint, store.checkpoint(fp));
         // The merged checkpoint holds what the rank files held.
-        for (const auto& f : rank_checkpoint_files(spec.checkpoint)) std::filesystem::remove(f);
+        remove_rank_checkpoint_files(spec.checkpoint);
     }
     out.result = search_cycles(spec, store);
     return out;

@@ -1,6 +1,8 @@
 #pragma once
 // A minimal deterministic parallel loop: job k always writes its own slot, so
 // the result is the same whatever the number of threads.
+#include <sched.h>
+
 #include <algorithm>
 #include <atomic>
 #include <cstddef>
@@ -12,6 +14,19 @@
 namespace overshoot {
 
 inline int default_threads() { return static_cast<int>(std::max(1u, std::thread::hardware_concurrency())); }
+
+// Threads for one of `processes_here` processes sharing this machine (MPI
+// ranks): one per core this process may run on when it is bound to some
+// (mpirun binds ranks), else an even share of the machine's cores.
+inline int threads_per_process(int processes_here) {
+    const int hw = default_threads();
+    cpu_set_t set;
+    if (sched_getaffinity(0, sizeof set, &set) == 0) {
+        const int allowed = CPU_COUNT(&set);
+        if (allowed > 0 && allowed < hw) return allowed;
+    }
+    return std::max(1, hw / std::max(1, processes_here));
+}
 
 // Calls f(k) for k in [0, count) on `threads` threads (0 = all cores). The
 // first exception thrown by any job is rethrown after every thread stopped.

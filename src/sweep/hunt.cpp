@@ -5,7 +5,6 @@
 #include <algorithm>
 #include <chrono>
 #include <filesystem>
-#include <thread>
 #include <cmath>
 #include <map>
 #include <mutex>
@@ -13,6 +12,7 @@
 #include <sys/stat.h>
 
 #include "core/error.hpp"
+#include "core/parallel.hpp"
 #include "sweep/checkpoint.hpp"
 
 namespace overshoot {
@@ -151,6 +151,15 @@ Checkpoint HuntStore::checkpoint(std::uint64_t fingerprint) const {
                 }
             }
     return c;
+}
+
+std::string rank_checkpoint_file(const std::string& checkpoint, int rank) {
+    return fmt::format("{}.rank{}", checkpoint, rank);
+}
+
+void remove_rank_checkpoint_files(const std::string& checkpoint) {
+    if (checkpoint.empty()) return;
+    for (const auto& f : rank_checkpoint_files(checkpoint)) std::filesystem::remove(f);
 }
 
 std::vector<std::string> rank_checkpoint_files(const std::string& checkpoint) {
@@ -390,7 +399,6 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
     std::atomic<bool>* stop = spec.cancel ? spec.cancel : &local_stop;
     std::mutex store_mutex;
     long long fresh = 0;
-    bool stopped_here = false;
     auto last_save = std::chrono::steady_clock::now();
     auto maybe_save = [&](bool now) {  // caller holds store_mutex
         if (!save) return;
@@ -427,10 +435,7 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
         cells_done += count;
         ++fresh;
         progress();
-        if (spec.stop_after_pairs >= 0 && fresh >= spec.stop_after_pairs) {
-            stop->store(true);
-            stopped_here = true;
-        }
+        if (spec.stop_after_pairs >= 0 && fresh >= spec.stop_after_pairs) stop->store(true);
         maybe_save(false);
     };
     progress();
@@ -467,7 +472,7 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
         std::lock_guard<std::mutex> lock(store_mutex);
         maybe_save(true);
     }
-    return !(stop->load() || stopped_here);
+    return !stop->load();
 }
 
 // ---------------------------------------------------------------- cycles
@@ -586,10 +591,8 @@ HuntResult search_cycles(const HuntSpec& spec, const HuntStore& store) {
 HuntResult run_hunt(const HuntSpec& spec) {
     validate_hunt(spec);
     HuntStore store = load_hunt_store(spec);
-    if (!spec.resume && !spec.checkpoint.empty())
-        for (const auto& f : rank_checkpoint_files(spec.checkpoint)) std::filesystem::remove(f);
-    const int threads = spec.engine.threads > 0 ? spec.engine.threads
-                                                : static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+    if (!spec.resume) remove_rank_checkpoint_files(spec.checkpoint);
+    const int threads = spec.engine.threads > 0 ? spec.engine.threads : default_threads();
     const HuntPlan plan = plan_hunt(spec, store, 1, threads);
     if (spec.on_plan) spec.on_plan(plan);
     const std::uint64_t fp = hunt_fingerprint(spec);
@@ -598,8 +601,7 @@ HuntResult run_hunt(const HuntSpec& spec) {
         save = [&](const HuntStore& s) { save_checkpoint(spec.checkpoint, s.checkpoint(fp)); };
     compute_shards(spec, plan, 0, store, save);
     // Rank files of an earlier run are now inside the checkpoint.
-    if (!spec.checkpoint.empty())
-        for (const auto& f : rank_checkpoint_files(spec.checkpoint)) std::filesystem::remove(f);
+    remove_rank_checkpoint_files(spec.checkpoint);
     return search_cycles(spec, store);
 }
 

@@ -119,8 +119,12 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
 // Loads spec.checkpoint and every FILE.rank<r> beside it (resume), or an
 // empty store. Throws InputError naming the file that does not fit.
 HuntStore load_hunt_store(const HuntSpec& spec);
+// The checkpoint file of one MPI rank: FILE.rank<r>, beside FILE.
+std::string rank_checkpoint_file(const std::string& checkpoint, int rank);
 // The rank files beside a checkpoint (FILE.rank0, FILE.rank1, ...), sorted.
 std::vector<std::string> rank_checkpoint_files(const std::string& checkpoint);
+// Removes them: stale ones before a fresh run, merged ones after a finished run.
+void remove_rank_checkpoint_files(const std::string& checkpoint);
 
 // Computes the shards of `plan` that belong to `rank` into `out` (cells that
 // `out` already knows are not redone). `save` (may be empty) is called with
