@@ -427,7 +427,8 @@ TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks",
                         if (!store.known(v, a, b, k)) REQUIRE(c == 1);
                         if (v == 0 && store.known(v, a, b, k)) REQUIRE(c == 0);
                     }
-        // Longest-first greedy: no rank exceeds the mean by more than one shard (Graham 1969).
+        // Longest-first greedy: no rank exceeds the mean by more than one shard (the list-scheduling
+        // bound, R. L. Graham 1969, SIAM J. Appl. Math. 17(2); cited from memory).
         for (int r = 0; r < ranks; ++r) {
             REQUIRE(by_rank[r] == Approx(plan.rank_cost[r]));
             REQUIRE(by_rank[r] <= total / ranks + largest + 1e-9 * total);
