@@ -148,7 +148,7 @@ TEST_CASE("small certificates: winner, cycle refusal, every kind of edit", "[cer
     CHECK_THROWS_WITH(parse_certificate("not json", "x"), Catch::Contains("not valid JSON"));
 }
 
-TEST_CASE("certificates on boards where pieces move backward use exact elimination or intervals", "[certify]") {
+TEST_CASE("certificates on boards where pieces move backward use exact elimination or residual proofs", "[certify]") {
     auto o = opts({"1d6", "2d6"});
     Board small = make_board(10, Overshoot::bounce, {{8, 2}});
     Board large = make_board(60, Overshoot::bounce, {});
@@ -162,6 +162,7 @@ TEST_CASE("certificates on boards where pieces move backward use exact eliminati
                 continue;
             }
             CHECK(c.duels[0].exact_method == (b == &small ? "exact elimination" : ""));
+            CHECK(c.duels[0].residual.has_value() == (b == &large));
             const std::string text = write(c);
             CheckReport r = recheck(text);
             INFO(r.failure);

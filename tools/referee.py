@@ -37,10 +37,19 @@ class Malformed(Exception):
     pass
 
 
+class Wrong(Exception):
+    """A number or the claim is wrong (exit 1)."""
+
+
 def rows(length, rule, jumps, moves):
     """For each square s < length, {destination: probability}; `length` is the finish."""
-    jump = {f: t for f, t in jumps}
     total = sum(w for _, w in moves)
+    return [{d: Fraction(w, total) for d, w in r.items()} for r in weight_rows(length, rule, jumps, moves)]
+
+
+def weight_rows(length, rule, jumps, moves):
+    """For each square s < length, {destination: integer weight}; `length` is the finish."""
+    jump = {f: t for f, t in jumps}
 
     def follow(t):
         seen = set()
@@ -67,7 +76,7 @@ def rows(length, rule, jumps, moves):
             else:  # bounce: walk the excess back; past the start, stop on 0
                 ex = t - length
                 d = follow(0) if ex > length else follow(length - ex)
-            r[d] = r.get(d, 0) + Fraction(w, total)
+            r[d] = r.get(d, 0) + w
         out.append(r)
     return out
 
@@ -162,6 +171,139 @@ def duel(n, rule, jumps, ma, mb, order):
     return {"p_a_wins": w, "p_b_wins": l, "p_tie": t, "p_neither": 1 - w - l - t, "margin": w - l}
 
 
+def outcome(first, fa, fb):
+    """One round in which A finishes (fa) and B finishes (fb): 0 A wins, 1 B wins, 2 tie, 3 goes on.
+    With an alternating order the first mover's finish ends the round before the other moves."""
+    if first == "both":
+        return 2 if fa and fb else 0 if fa else 1 if fb else 3
+    if first == "a":
+        return 0 if fa else 1 if fb else 3
+    return 1 if fb else 0 if fa else 3
+
+
+def can_finish(n, rw):
+    ok = [False] * n + [True]
+    grown = True
+    while grown:
+        grown = False
+        for s in range(n):
+            if not ok[s] and any(ok[d] for d in rw[s]):
+                ok[s] = grown = True
+    return ok
+
+
+def scaled(text, digits, where):
+    """The integer text * 10^digits of a decimal with exactly `digits` places."""
+    whole, dot, frac = text.partition(".")
+    if not (whole.isdigit() and len(frac) == digits and (frac.isdigit() or digits == 0) and (dot or digits == 0)):
+        raise Malformed(f"{where}: '{text[:40]}' is not a decimal with exactly {digits} places")
+    return int(whole + frac)
+
+
+def residual_part(n, wa, wb, da_total, db_total, part, rounds_digits, where):
+    """Verifies one product chain of a residual certificate exactly; returns (centres, radii) at the start
+    for p_a_wins, p_b_wins, p_tie, p_neither, margin, or raises Wrong."""
+    first, digits = part["first"], part["digits"]
+    ties = first == "both"
+    states = [tuple(s) for s in part["states"]]
+    m = len(states)
+    vec = {k: [scaled(v, digits, f"{where}: {k}") for v in part[k]] for k in ("p_a_wins", "p_b_wins")}
+    vec["p_tie"] = [scaled(v, digits, f"{where}: p_tie") for v in part["p_tie"]] if ties else [0] * m
+    vec["rounds"] = [scaled(v, rounds_digits, f"{where}: rounds") for v in part["rounds"]]
+    if any(len(v) != m for v in vec.values()):
+        raise Wrong(f"{where}: a list of values does not have one value per state")
+    fa, fb = can_finish(n, wa), can_finish(n, wb)
+
+    def live(a, b):
+        return fa[a] or fb[b]
+
+    # The live states reachable from the start, by graph search.
+    seen = {(0, 0)} if live(0, 0) else set()
+    todo = list(seen)
+    while todo:
+        a, b = todo.pop()
+        for da in wa[a]:
+            for db in wb[b]:
+                if outcome(first, da == n, db == n) == 3 and live(da, db) and (da, db) not in seen:
+                    seen.add((da, db))
+                    todo.append((da, db))
+    if states != sorted(seen):
+        extra = sorted(set(states) - seen)
+        missing = sorted(seen - set(states))
+        raise Wrong(f"{where}: the states are not the live states reachable from the start, in increasing order"
+                    f" (listed but not such: {extra[:3]}; missing: {missing[:3]})")
+    if m == 0:
+        return [Fraction(0), Fraction(0), Fraction(0), Fraction(1), Fraction(0)], [Fraction(0)] * 5
+    index = {s: i for i, s in enumerate(states)}
+    full, scale, hscale = da_total * db_total, 10 ** digits, 10 ** rounds_digits
+    xa, xb, xt, h = vec["p_a_wins"], vec["p_b_wins"], vec["p_tie"], vec["rounds"]
+    worst = [0] * 5
+    for i, (a, b) in enumerate(states):
+        ra, rb, rt, rh = full * xa[i], full * xb[i], full * xt[i], full * h[i]
+        for da, pa in wa[a].items():
+            for db, pb in wb[b].items():
+                w = pa * pb
+                o = outcome(first, da == n, db == n)
+                if o == 0:
+                    ra -= scale * w
+                elif o == 1:
+                    rb -= scale * w
+                elif o == 2:
+                    rt -= scale * w
+                elif live(da, db):
+                    j = index[(da, db)]
+                    ra -= w * xa[j]
+                    rb -= w * xb[j]
+                    rt -= w * xt[j]
+                    rh -= w * h[j]
+        if rh < full * hscale:
+            raise Wrong(f"{where}: rounds: h >= 1 + Q h fails at state ({a}, {b})")
+        for c, r in enumerate((ra, rb, rt, ra + rb + rt, ra - rb)):
+            worst[c] = max(worst[c], abs(r))
+    ca, cb, ct = Fraction(xa[0], scale), Fraction(xb[0], scale), Fraction(xt[0], scale)
+    centres = [ca, cb, ct, 1 - ca - cb - ct, ca - cb]
+    radii = [Fraction(r * h[0], full * scale * hscale) for r in worst]
+    return centres, radii
+
+
+def decimal6(q):
+    """q rounded to 6 places, ties away from zero, as overshoot writes it."""
+    units = (abs(q) * 10 ** 6 * 2 + 1) // 2
+    sign = "-" if q < 0 and units != 0 else ""
+    return f"{sign}{units // 10 ** 6}.{units % 10 ** 6:06d}"
+
+
+def residual_duel(n, rule, jumps, ma, mb, order, d, where):
+    """Verifies a duel's residual certificate; returns its verdict, or raises Wrong."""
+    res = d["residual"]
+    firsts = {"simultaneous": ["both"], "a-first": ["a"], "b-first": ["b"], "coin": ["a", "b"]}[order]
+    parts = res["parts"]
+    if [p["first"] for p in parts] != firsts:
+        raise Wrong(f"{where}: the parts do not fit the turn order {order}")
+    wa, wb = weight_rows(n, rule, jumps, ma), weight_rows(n, rule, jumps, mb)
+    ta, tb = sum(w for _, w in ma), sum(w for _, w in mb)
+    centres, radii = [Fraction(0)] * 5, [Fraction(0)] * 5
+    for k, p in enumerate(parts):
+        c, r = residual_part(n, wa, wb, ta, tb, p, res["rounds_digits"], f"{where}: part {k + 1}")
+        centres = [x + y / len(parts) for x, y in zip(centres, c)]
+        radii = [x + y / len(parts) for x, y in zip(radii, r)]
+    for i, k in enumerate(("p_a_wins", "p_b_wins", "p_tie", "p_neither", "margin")):
+        lo, hi = centres[i] - radii[i], centres[i] + radii[i]
+        if k != "margin":
+            lo, hi = max(lo, Fraction(0)), min(hi, Fraction(1))
+        rlo, rhi = d[k]["interval"]
+        if Fraction(rlo) > lo or Fraction(rhi) < hi:
+            raise Wrong(f"{where}: {k}: the recorded interval does not contain the proven one "
+                        f"[{float(lo)!r}, {float(hi)!r}]")
+        if d[k]["decimal"] != decimal6(centres[i]):
+            raise Wrong(f"{where}: {k}: the decimal {d[k]['decimal']} is not the proven centre rounded to 6 places")
+    lo, hi = centres[4] - radii[4], centres[4] + radii[4]
+    v = "a beats b" if lo > 0 else "b beats a" if hi < 0 else "undecided"
+    if d["verdict"] != v:
+        raise Wrong(f"{where}: verdict '{d['verdict']}' but the proven margin says '{v}'")
+    return v, float(2 * radii[4])
+
+
 def fraction(text, where):
     try:
         num, den = text.split("/")
@@ -216,6 +358,12 @@ def main(argv):
     try:
         for (a, b, n), d in duels.items():
             where = f"duel {a} vs {b} on {n} squares"
+            if d.get("residual") is not None:
+                t0 = time.perf_counter()
+                verdicts[(a, b, n)], width = residual_duel(n, rule, jumps, options[a], options[b], order, d, where)
+                print(f"ok   {where}: residual certificate verified with integers and fractions.Fraction "
+                      f"(margin {d['margin']['decimal']}, proven width {width:.3g}; {time.perf_counter() - t0:.2f} s)")
+                continue
             if d.get("exact_method") is None:
                 print(f"skip {where}: no exact fractions (proven interval only)")
                 skipped.append(where)
@@ -269,7 +417,10 @@ def main(argv):
             if x is not None and y is not None and (x == y or "undecided" in (x, y)):
                 print(f"referee: {path}: claim: the preference does not change", file=sys.stderr)
                 return 1
-    except (KeyError, TypeError, Malformed) as e:
+    except Wrong as e:
+        print(f"referee: {path}: {e}", file=sys.stderr)
+        return 1
+    except (KeyError, TypeError, ValueError, Malformed) as e:
         print(f"referee: {path}: unreadable: {e}", file=sys.stderr)
         return 2
     if skipped:

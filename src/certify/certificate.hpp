@@ -10,6 +10,7 @@
 #include <string>
 #include <vector>
 
+#include "certify/residual.hpp"
 #include "core/board.hpp"
 #include "core/option.hpp"
 
@@ -42,6 +43,9 @@ struct CertDuel {
     std::string exact_method;     // empty when no exact value could be computed
     std::string interval_method;  // the floating-point method whose proven bound gave the intervals
     Verdict verdict = Verdict::undecided;
+    // General boards beyond exact elimination: the values and rounds bound
+    // from which the intervals are proven in exact arithmetic.
+    std::optional<ResidualProof> residual;
 };
 
 struct Certificate {
@@ -68,10 +72,13 @@ struct ClaimFailure : std::runtime_error {
 };
 
 // Computes every duel the claim needs (exact fractions where exact mode can,
-// proven intervals always) on `threads` threads (0 = all cores). Throws
-// ClaimFailure when the claim does not hold, InputError on a malformed claim.
+// proven intervals always) on `threads` threads (0 = all cores). On boards
+// where pieces can move backward and exact elimination does not fit (or
+// always, with `residual`), the intervals come from a residual certificate.
+// Throws ClaimFailure when the claim does not hold, InputError on a
+// malformed claim.
 Certificate certify(const Claim& claim, const Board& board, Order order, const std::vector<Option>& options,
-                    int threads = 0);
+                    int threads = 0, bool residual = false);
 
 // Reads a certificate JSON document; throws InputError naming the first
 // missing or malformed field.

@@ -117,10 +117,39 @@ CertValue interval(long double x, long double r, bool probability) {
     return v;
 }
 
+mpq_class exact(double x) { return mpq_class(x); }
+
+// [centre - radius, centre + radius] as binary64 numbers rounded outward
+// (probabilities clipped to [0, 1], which holds them anyway).
+CertValue proven(const mpq_class& centre, const mpq_class& radius, bool probability) {
+    mpq_class lo = centre - radius, hi = centre + radius;
+    if (probability) {
+        lo = std::max(lo, mpq_class(0));
+        hi = std::min(hi, mpq_class(1));
+    }
+    CertValue v;
+    v.lo = lo.get_d();
+    if (exact(v.lo) > lo) v.lo = std::nextafter(v.lo, -HUGE_VAL);
+    v.hi = hi.get_d();
+    if (exact(v.hi) < hi) v.hi = std::nextafter(v.hi, HUGE_VAL);
+    v.decimal = decimal_string(centre, 6);
+    return v;
+}
+
+void residual_values(CertDuel& d, ResidualWriting& w) {
+    const ResidualBounds& b = w.bounds;
+    CertValue* v[5] = {&d.p_a_wins, &d.p_b_wins, &d.p_tie, &d.p_neither, &d.margin};
+    for (int i = 0; i < 5; ++i) *v[i] = proven(b.centre[i], b.radius[i], i < 4);
+    d.interval_method = "residual certificate";
+    const mpq_class lo = b.centre[4] - b.radius[4], hi = b.centre[4] + b.radius[4];
+    d.verdict = lo > 0 ? Verdict::a_beats_b : hi < 0 ? Verdict::b_beats_a : Verdict::undecided;
+    d.residual = std::move(w.proof);
+}
+
 }  // namespace
 
 Certificate certify(const Claim& claim, const Board& board, Order order, const std::vector<Option>& options,
-                    int threads) {
+                    int threads, bool residual) {
     Certificate cert;
     cert.claim = claim;
     cert.board = board;
@@ -147,15 +176,22 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
     std::vector<std::optional<ExactDuel>> exact(m);
     std::vector<DuelResult> approx(m);
     std::vector<std::string> refusal(m);
-    // Tasks 0..m-1 exact (the slow ones first), m..2m-1 floating point.
+    std::vector<std::optional<ResidualWriting>> proof(m);
+    for (std::size_t t = 0; t < m; ++t) {
+        const auto& n = need[t];
+        const Chain& ca = chains.at({n.length, by_name.at(n.a)});
+        refusal[t] = exact_refusal(ca, chains.at({n.length, by_name.at(n.b)}));
+        if (!ca.forward_only && (residual || !refusal[t].empty())) refusal[t] = "residual";
+    }
+    // Tasks 0..m-1 exact or residual (the slow ones first), m..2m-1 floating point.
     parallel_for(2 * m, threads, [&](std::size_t t) {
         const auto& n = need[t % m];
         const Chain& ca = chains.at({n.length, by_name.at(n.a)});
         const Chain& cb = chains.at({n.length, by_name.at(n.b)});
         if (t < m) {
-            refusal[t] = exact_refusal(ca, cb);
             if (refusal[t].empty()) exact[t] = exact_duel(ca, cb, order);
-        } else {
+            else if (refusal[t] == "residual") proof[t] = write_residual(ca, cb, order);
+        } else if (refusal[t - m] != "residual") {
             DuelSettings s;
             s.want_median = false;
             approx[t - m] = duel(ca, cb, order, s);
@@ -167,6 +203,11 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
         d.a = need[i].a;
         d.b = need[i].b;
         d.length = need[i].length;
+        if (proof[i]) {
+            residual_values(d, *proof[i]);
+            cert.duels.push_back(std::move(d));
+            continue;
+        }
         const long double bound = r.bound_proven ? r.bound : 1.0L;
         d.p_a_wins = interval(r.p_a_wins, bound, true);
         d.p_b_wins = interval(r.p_b_wins, bound, true);

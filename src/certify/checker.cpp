@@ -48,6 +48,36 @@ std::vector<const CertValue*> values(const CertDuel& d) {
     return {&d.p_a_wins, &d.p_b_wins, &d.p_tie, &d.p_neither, &d.margin};
 }
 
+// A residual duel: the proof must hold, every recorded interval must contain
+// the proven one and every decimal must be its centre; returns the verdict
+// the proven margin decides.
+Verdict check_recorded(const std::string& where, const CertDuel& d, const std::string& failure,
+                       const ResidualBounds& b) {
+    if (!failure.empty()) fail(fmt::format("{}: residual certificate: {}", where, failure));
+    if (!d.exact_method.empty()) fail(fmt::format("{}: a residual duel carries no exact fractions", where));
+    auto v = values(d);
+    for (int i = 0; i < 5; ++i) {
+        mpq_class lo = b.centre[i] - b.radius[i], hi = b.centre[i] + b.radius[i];
+        if (i < 4) {
+            lo = std::max(lo, mpq_class(0));
+            hi = std::min(hi, mpq_class(1));
+        }
+        if (exact_of(v[i]->lo) > lo || exact_of(v[i]->hi) < hi)
+            fail(fmt::format("{}: {}: the recorded interval [{:.17g}, {:.17g}] does not contain the proven one [{:.17g}, "
+                             "{:.17g}]",
+                             where, value_names[i], v[i]->lo, v[i]->hi, lo.get_d(), hi.get_d()));
+        if (v[i]->decimal != decimal_string(b.centre[i], 6))
+            fail(fmt::format("{}: {}: the decimal {} is not the proven centre rounded to 6 places", where,
+                             value_names[i], v[i]->decimal));
+    }
+    const mpq_class lo = b.centre[4] - b.radius[4], hi = b.centre[4] + b.radius[4];
+    const Verdict got = lo > 0 ? Verdict::a_beats_b : hi < 0 ? Verdict::b_beats_a : Verdict::undecided;
+    if (d.verdict != got)
+        fail(fmt::format("{}: verdict '{}' is wrong: the proven margin gives '{}'", where, to_string(d.verdict),
+                         to_string(got)));
+    return got;
+}
+
 }  // namespace
 
 CheckReport check_certificate(const Certificate& c, const std::string& text, int threads) {
@@ -120,6 +150,8 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
         const std::size_t m = c.duels.size(), np = rep.primes.size();
         std::vector<DuelResult> approx(m);
         std::vector<std::optional<std::array<u64, 3>>> mod(m * np);
+        std::vector<std::string> residual_failure(m);
+        std::vector<ResidualBounds> residual_bounds(m);
         parallel_for(m * (np + 1), threads, [&](std::size_t t) {
             const CertDuel& d = c.duels[t % m];
             const Chain& ca = chains.at({d.length, d.a});
@@ -127,6 +159,8 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
             const std::size_t job = t / m;
             if (job < np) {
                 if (!d.exact_method.empty()) mod[(t % m) * np + job] = modular_duel(ca, cb, c.order, rep.primes[job]);
+            } else if (d.residual) {
+                residual_failure[t % m] = check_residual(*d.residual, ca, cb, c.order, residual_bounds[t % m]);
             } else {
                 DuelSettings s;
                 s.want_median = false;
@@ -142,6 +176,16 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
         std::vector<bool> exact_only(m, false);
         for (std::size_t k = 0; k < m; ++k) {
             const CertDuel& d = c.duels[k];
+            if (d.residual) {
+                verdict[k] = check_recorded(where(d), d, residual_failure[k], residual_bounds[k]);
+                const ResidualBounds& b = residual_bounds[k];
+                const mpq_class lo = b.centre[4] - b.radius[4], hi = b.centre[4] + b.radius[4], width = 2 * b.radius[4];
+                rep.passed.push_back(CheckItem{
+                    where(d), fmt::format("residual certificate verified in exact arithmetic; margin {} in [{:.17g}, "
+                                          "{:.17g}] (proven width {:.3g})",
+                                          d.margin.decimal, lo.get_d(), hi.get_d(), width.get_d())});
+                continue;
+            }
             const DuelResult& r = approx[k];
             if (!r.bound_proven) fail(fmt::format("{}: the floating-point engine gave no proven bound", where(d)));
             auto v = values(d);
@@ -232,6 +276,8 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
                                  c.claim.at));
         }
         std::string how = "every arc decided by the proven interval of the floating-point engine";
+        for (std::size_t i = 0; i < need.size(); ++i)
+            if (c.duels[need_at[i]].residual) how = "arcs decided by proven intervals (residual certificates, exact arithmetic)";
         for (std::size_t i = 0; i < need.size(); ++i)
             if (exact_only[need_at[i]]) how = "some arcs decided only by the exact margin (their intervals are too wide)";
         rep.passed.push_back({"claim", how});

@@ -45,6 +45,56 @@ struct Reader {
     }
     static std::string join(const std::string& path, const char* key) { return path.empty() ? key : path + "." + key; }
 
+    std::vector<mpz_class> decimals(const json& part, const std::string& path, const char* key, int digits,
+                                    std::size_t count) const {
+        const json& v = field(part, path, key);
+        std::string p = join(path, key);
+        if (!v.is_array() || v.size() != count) fail(p, fmt::format("expected a list of {} decimals (one per state)", count));
+        std::vector<mpz_class> out;
+        out.reserve(count);
+        for (std::size_t i = 0; i < count; ++i) {
+            if (!v[i].is_string()) fail(fmt::format("{}[{}]", p, i), "expected a decimal string");
+            out.push_back(parse_scaled_decimal(v[i].get<std::string>(), digits,
+                                               fmt::format("{}: field '{}[{}]'", source, p, i)));
+        }
+        return out;
+    }
+
+    ResidualProof residual(const json& v, const std::string& p) const {
+        ResidualProof proof;
+        proof.rounds_digits = static_cast<int>(integer(v, p, "rounds_digits", 0, 30));
+        const json& parts = field(v, p, "parts");
+        if (!parts.is_array() || parts.empty() || parts.size() > 2) fail(p + ".parts", "expected a list of 1 or 2 parts");
+        for (std::size_t k = 0; k < parts.size(); ++k) {
+            const std::string q = fmt::format("{}.parts[{}]", p, k);
+            ResidualPart part;
+            const std::string first = str(parts[k], q, "first");
+            if (first == "both") part.first = Mover::both;
+            else if (first == "a") part.first = Mover::a;
+            else if (first == "b") part.first = Mover::b;
+            else fail(q + ".first", fmt::format("'{}': expected both, a or b", first));
+            part.digits = static_cast<int>(integer(parts[k], q, "digits", 1, 60));
+            const json& st = field(parts[k], q, "states");
+            if (!st.is_array()) fail(q + ".states", "expected a list of [square of A, square of B]");
+            for (std::size_t i = 0; i < st.size(); ++i) {
+                const json& x = st[i];
+                if (!x.is_array() || x.size() != 2 || !x[0].is_number_integer() || !x[1].is_number_integer())
+                    fail(fmt::format("{}.states[{}]", q, i), "expected [square of A, square of B]");
+                const long long a = x[0].get<long long>(), b = x[1].get<long long>();
+                if (a < 0 || b < 0 || a > limits::max_length || b > limits::max_length)
+                    fail(fmt::format("{}.states[{}]", q, i), "a square out of range");
+                part.states.emplace_back(static_cast<int>(a), static_cast<int>(b));
+            }
+            const std::size_t n = part.states.size();
+            part.p_a_wins = decimals(parts[k], q, "p_a_wins", part.digits, n);
+            part.p_b_wins = decimals(parts[k], q, "p_b_wins", part.digits, n);
+            if (part.first == Mover::both) part.p_tie = decimals(parts[k], q, "p_tie", part.digits, n);
+            part.rounds = decimals(parts[k], q, "rounds", proof.rounds_digits, n);
+            proof.parts.push_back(std::move(part));
+        }
+        return proof;
+    }
+
     CertValue value(const json& obj, const std::string& path, const char* key) const {
         const json& v = field(obj, path, key);
         std::string p = join(path, key);
@@ -188,6 +238,7 @@ Certificate parse_certificate(const std::string& text, const std::string& source
         d.p_tie = r.value(jd[i], p, "p_tie");
         d.p_neither = r.value(jd[i], p, "p_neither");
         d.margin = r.value(jd[i], p, "margin");
+        if (jd[i].contains("residual")) d.residual = r.residual(jd[i]["residual"], p + ".residual");
         const bool has = !d.exact_method.empty();
         for (const CertValue* x : {&d.p_a_wins, &d.p_b_wins, &d.p_tie, &d.p_neither, &d.margin})
             if (x->exact.has_value() != has)

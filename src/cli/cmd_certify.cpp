@@ -22,6 +22,7 @@ struct CertifyArgs {
     std::string output;
     std::string format = "json";
     int threads = 0;
+    bool residual = false;
 };
 
 void run(const CertifyArgs& a) {
@@ -43,7 +44,7 @@ void run(const CertifyArgs& a) {
     for (const auto& o : s.options) claim.options.push_back(o.name);
     Certificate cert;
     try {
-        cert = certify(claim, s.board, s.order, s.options, a.threads);
+        cert = certify(claim, s.board, s.order, s.options, a.threads, a.residual);
     } catch (const ClaimFailure& e) {
         std::fprintf(stderr, "overshoot: %s; no certificate written\n", e.what());
         exit_status() = 1;
@@ -71,6 +72,9 @@ void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind ki
     cmd->add_option("-o,--output", args->output, "write the certificate to FILE (atomically) instead of stdout");
     cmd->add_option("--format", args->format, "json (the certificate, default), md or latex (for people)");
     cmd->add_option("--threads", args->threads, "threads to use (default: all cores)");
+    cmd->add_flag("--residual", args->residual,
+                  "on boards where pieces can move backward, prove intervals by a residual certificate even where "
+                  "exact elimination fits");
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);
         run(*args);

@@ -19,6 +19,25 @@ nlohmann::json value_json(const CertValue& v) {
 
 const char* value_names[] = {"p_a_wins", "p_b_wins", "p_tie", "p_neither", "margin"};
 
+nlohmann::json residual_json(const ResidualProof& r) {
+    nlohmann::json parts = nlohmann::json::array();
+    for (const ResidualPart& p : r.parts) {
+        auto list = [](const std::vector<mpz_class>& v, int digits) {
+            nlohmann::json out = nlohmann::json::array();
+            for (const mpz_class& x : v) out.push_back(scaled_decimal(x, digits));
+            return out;
+        };
+        nlohmann::json states = nlohmann::json::array();
+        for (const auto& [a, b] : p.states) states.push_back({a, b});
+        nlohmann::json j = {{"first", std::string(to_string(p.first))}, {"digits", p.digits}, {"states", states},
+                            {"p_a_wins", list(p.p_a_wins, p.digits)}, {"p_b_wins", list(p.p_b_wins, p.digits)},
+                            {"rounds", list(p.rounds, r.rounds_digits)}};
+        if (p.first == Mover::both) j["p_tie"] = list(p.p_tie, p.digits);
+        parts.push_back(j);
+    }
+    return {{"rounds_digits", r.rounds_digits}, {"parts", parts}};
+}
+
 const CertValue& value_of(const CertDuel& d, int i) {
     switch (i) {
         case 0: return d.p_a_wins;
@@ -89,6 +108,7 @@ nlohmann::json certificate_json(const Certificate& c) {
                             {"interval_method", d.interval_method}};
         e["exact_method"] = d.exact_method.empty() ? nlohmann::json(nullptr) : nlohmann::json(d.exact_method);
         for (int i = 0; i < 5; ++i) e[value_names[i]] = value_json(value_of(d, i));
+        if (d.residual) e["residual"] = residual_json(*d.residual);
         duels.push_back(e);
     }
     j["duels"] = duels;
