@@ -25,6 +25,16 @@ std::string_view to_string(Mover m) {
     return "?";
 }
 
+std::vector<Mover> parts_of(Order order) {
+    switch (order) {
+        case Order::simultaneous: return {Mover::both};
+        case Order::a_first: return {Mover::a};
+        case Order::b_first: return {Mover::b};
+        case Order::coin: return {Mover::a, Mover::b};
+    }
+    return {};
+}
+
 namespace {
 
 __extension__ typedef __int128 i128;
@@ -286,13 +296,7 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
 
 ResidualWriting write_residual(const Chain& a, const Chain& b, Order order) {
     if (a.length != b.length) throw InternalError("write_residual: the chains are on different boards");
-    std::vector<Mover> movers;
-    switch (order) {
-        case Order::simultaneous: movers = {Mover::both}; break;
-        case Order::a_first: movers = {Mover::a}; break;
-        case Order::b_first: movers = {Mover::b}; break;
-        case Order::coin: movers = {Mover::a, Mover::b}; break;
-    }
+    const std::vector<Mover> movers = parts_of(order);
     ResidualWriting w;
     w.proof.rounds_digits = kRoundsDigits;
     const mpq_class weight(1, static_cast<unsigned long>(movers.size()));

@@ -22,6 +22,8 @@ namespace overshoot {
 // Who moves first in each round of one part's chain.
 enum class Mover { both, a, b };
 std::string_view to_string(Mover m);
+// The parts a turn order needs, in the order a certificate lists them.
+std::vector<Mover> parts_of(Order order);
 
 // One product chain: states are pairs (square of A, square of B) at the start
 // of a round. Values are integers over 10^digits (x~) and 10^rounds_digits (h).

@@ -159,13 +159,7 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
 
 std::string check_residual(const ResidualProof& proof, const Chain& a, const Chain& b, Order order,
                            ResidualBounds& bounds) {
-    std::vector<Mover> want;
-    switch (order) {
-        case Order::simultaneous: want = {Mover::both}; break;
-        case Order::a_first: want = {Mover::a}; break;
-        case Order::b_first: want = {Mover::b}; break;
-        case Order::coin: want = {Mover::a, Mover::b}; break;
-    }
+    const std::vector<Mover> want = parts_of(order);
     if (proof.parts.size() != want.size())
         return fmt::format("the turn order {} needs {} part(s), not {}", to_string(order), want.size(), proof.parts.size());
     bounds = ResidualBounds{};
