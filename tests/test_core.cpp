@@ -3,12 +3,19 @@
 // spec grammar in DESIGN.md (counting faces), not read back from the code.
 #include <catch2/catch.hpp>
 
+#include <sys/stat.h>
+#include <unistd.h>
+
 #include <cstdint>
+#include <filesystem>
+#include <fstream>
+#include <sstream>
 #include <string>
 #include <vector>
 
 #include "core/board.hpp"
 #include "core/error.hpp"
+#include "core/io.hpp"
 #include "core/limits.hpp"
 #include "core/option.hpp"
 #include "core/scenario.hpp"
@@ -328,4 +335,45 @@ TEST_CASE("bundled example scenarios load and make valid boards", "[core]") {
         CHECK(s.options.size() >= 3);
         for (const auto& o : s.options) CHECK_NOTHROW(parse_option(o.spec, o.name));
     }
+}
+
+// ---------------------------------------------------------------- file output
+
+TEST_CASE("write_atomically: a chain of links is followed to its final target, which keeps its mode", "[core]") {
+    namespace fs = std::filesystem;
+    const fs::path dir = fs::temp_directory_path() / ("overshoot-io-" + std::to_string(::getpid()));
+    fs::remove_all(dir);
+    fs::create_directories(dir / "sub");
+    auto read = [](const fs::path& p) {
+        std::ifstream in(p);
+        std::stringstream ss;
+        ss << in.rdbuf();
+        return ss.str();
+    };
+    // first -> sub/second -> final (relative texts resolve against each link's folder)
+    std::ofstream(dir / "final") << "old";
+    fs::permissions(dir / "final", fs::perms::owner_read | fs::perms::owner_write | fs::perms::group_read);
+    fs::create_symlink("../final", dir / "sub" / "second");
+    fs::create_symlink("sub/second", dir / "first");
+    CHECK(link_target((dir / "first").string()) == (dir / "sub" / ".." / "final").string());
+    write_atomically((dir / "first").string(), "new\n");
+    CHECK(fs::is_symlink(dir / "first"));
+    CHECK(fs::is_symlink(dir / "sub" / "second"));
+    CHECK(read(dir / "final") == "new\n");
+    CHECK(fs::status(dir / "final").permissions() ==
+          (fs::perms::owner_read | fs::perms::owner_write | fs::perms::group_read));
+    // A dangling link: the file it names is created; the link stays.
+    fs::create_symlink("made", dir / "dangling");
+    write_atomically((dir / "dangling").string(), "x");
+    CHECK(fs::is_symlink(dir / "dangling"));
+    CHECK(read(dir / "made") == "x");
+    // A folder is refused by name; no temporary file is left anywhere.
+    CHECK_THAT(input_error([&] { write_atomically(dir.string(), "x"); }), Catch::Contains(dir.string()));
+    for (const auto& e : fs::recursive_directory_iterator(dir))
+        CHECK(e.path().filename().string().find(".tmp.") == std::string::npos);
+    // A link loop is refused, not followed forever.
+    fs::create_symlink("loop2", dir / "loop1");
+    fs::create_symlink("loop1", dir / "loop2");
+    CHECK_THAT(input_error([&] { write_atomically((dir / "loop1").string(), "x"); }), Catch::Contains("loop1"));
+    fs::remove_all(dir);
 }

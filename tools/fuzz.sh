@@ -1,6 +1,6 @@
 #!/bin/sh
 # Fuzzes every parser with libFuzzer (clang, ASan + UBSan) for a fixed time.
-#   tools/fuzz.sh [TARGET...]      targets: option_spec scenario certificate matrix_csv checkpoint
+#   tools/fuzz.sh [TARGET...]      targets: option_spec scenario certificate matrix_csv checkpoint arguments
 #   FUZZ_SECONDS=60                time per target (default 60)
 # Builds tests/fuzz (a separate CMake project, so the main build never needs
 # clang) in build-fuzz, replays the kept regression inputs, then fuzzes each
@@ -12,13 +12,13 @@ set -eu
 cd "$(dirname "$0")/.."
 
 PACKAGES="build-essential cmake pkg-config libboost-graph-dev libeigen3-dev libgmp-dev \
-libglpk-dev libtomlplusplus-dev nlohmann-json3-dev libfmt-dev \
+libglpk-dev libtomlplusplus-dev nlohmann-json3-dev libcli11-dev libfmt-dev \
 clang libclang-rt-14-dev llvm"
 
 . tools/packages.sh
 
 SECONDS_EACH="${FUZZ_SECONDS:-60}"
-TARGETS="${*:-option_spec scenario certificate matrix_csv checkpoint}"
+TARGETS="${*:-option_spec scenario certificate matrix_csv checkpoint arguments}"
 
 install_missing $PACKAGES
 CC=clang CXX=clang++ cmake -S tests/fuzz -B build-fuzz >/dev/null

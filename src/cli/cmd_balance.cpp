@@ -9,6 +9,7 @@
 #include "cli/race_flags.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
+#include "core/limits.hpp"
 #include "render/multi.hpp"
 #include "sweep/balance.hpp"
 
@@ -23,6 +24,7 @@ struct BalanceArgs {
     std::optional<std::string> lengths;
     bool jumps = false;
     int keep = 5;
+    OutputFlags out;
 };
 
 void run(const BalanceArgs& a) {
@@ -30,7 +32,6 @@ void run(const BalanceArgs& a) {
     const RaceOrder order = race_order_of(a.order, a.board);
     if (!a.starts && !a.lengths && !a.jumps)
         throw InputError("balance: say what to change: --starts LO..HI, --lengths LO..HI and/or --try-jumps");
-    if (a.keep < 1 || a.keep > 100) throw InputError(fmt::format("--keep {}: expected 1 to 100", a.keep));
     std::vector<Chain> chains;
     for (const auto& o : s.options) chains.push_back(build_chain(s.board, o));
     std::vector<const Chain*> ptr;
@@ -51,10 +52,7 @@ void run(const BalanceArgs& a) {
     if (a.jumps) js = search_jumps(s.board, s.options, order, a.keep);
     render::BalanceView view{&s.board, order, &s.options, hs ? &*hs : nullptr, ls ? &*ls : nullptr,
                              js ? &*js : nullptr};
-    if (a.board.json)
-        emit(render::balance_json(view).dump(2));
-    else
-        emit(render::balance_text(view));
+    deliver(a.out, a.out.chosen() == "json" ? render::balance_json(view).dump(2) : render::balance_text(view));
 }
 
 const Registration reg(32, [](CLI::App& app) {
@@ -63,12 +61,16 @@ const Registration reg(32, [](CLI::App& app) {
     // Option words are taken verbatim from the extras: CLI11 would split a
     // bracketed die such as "[0,2,3]" given to a positional list.
     cmd->allow_extras();
+    set_usage(*cmd, "SPEC SPEC [SPEC...]", "2 to 6 pieces, one option each: specs such as 1d6 or [1,2,6], or option names from --scenario");
     add_board_flags(*cmd, args->board, false);
-    cmd->add_option("--order", args->order, "race order: simultaneous or seated");
-    cmd->add_option("--starts", args->starts, "search a start square LO..HI for every option (exact, pruned)");
-    cmd->add_option("--lengths", args->lengths, "race at every length LO..HI and list the fairest");
+    add_output_flags(*cmd, args->out, {"text", "json"});
+    cmd->add_option("--order", args->order, "race order: simultaneous or seated")->check(one_of({"simultaneous", "seated"}));
+    cmd->add_option("--starts", args->starts, "search a start square LO..HI for every option (exact, pruned)")
+        ->check(range_in(0, limits::max_length));
+    cmd->add_option("--lengths", args->lengths, "race at every length LO..HI and list the fairest")
+        ->check(range_in(1, limits::max_length));
     cmd->add_flag("--try-jumps", args->jumps, "try every single added jump (boards up to 80 squares)");
-    cmd->add_option("--keep", args->keep, "how many best answers to list (default 5)");
+    cmd->add_option("--keep", args->keep, "how many best answers to list (default 5)")->check(whole_in(1, 100));
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);
         run(*args);

@@ -12,18 +12,21 @@ namespace {
 
 const Registration reg(900, [](CLI::App& app) {
     auto* cmd = app.add_subcommand("bench", "run the fixed benchmark workload; print its signature and times");
+    set_usage(*cmd, "", "");
     auto verbose = std::make_shared<bool>(false);
+    auto out = std::make_shared<OutputFlags>();
     cmd->add_flag("--verbose", *verbose, "also print the numbers that go into the signature");
-    cmd->callback([verbose] {
+    add_output_flags(*cmd, *out, {"text"});
+    cmd->callback([verbose, out] {
         BenchReport r = run_bench();
-        std::string out;
+        std::string text;
         for (const auto& it : r.items) {
-            out += fmt::format("{:<42} {:>10.2f} ms\n", it.name, it.milliseconds);
-            if (*verbose) out += fmt::format("    {}\n", it.result);
+            text += fmt::format("{:<42} {:>10.2f} ms\n", it.name, it.milliseconds);
+            if (*verbose) text += fmt::format("    {}\n", it.result);
         }
-        out += fmt::format("{:<42} {:>10.2f} ms\n", "total", r.total_milliseconds);
-        out += fmt::format("signature {:016x}\n", r.signature);
-        emit(out);
+        text += fmt::format("{:<42} {:>10.2f} ms\n", "total", r.total_milliseconds);
+        text += fmt::format("signature {:016x}\n", r.signature);
+        deliver(*out, text);
     });
 });
 

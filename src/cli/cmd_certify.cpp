@@ -5,10 +5,11 @@
 #include <memory>
 
 #include "certify/certificate.hpp"
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
-#include "core/io.hpp"
+#include "core/limits.hpp"
 #include "render/certificate.hpp"
 
 namespace overshoot::cli {
@@ -19,15 +20,12 @@ struct CertifyArgs {
     BoardFlags board;
     std::vector<std::string> specs;
     std::optional<int> at;
-    std::string output;
-    std::string format = "json";
+    OutputFlags out;
     int threads = 0;
     bool residual = false;
 };
 
 void run(const CertifyArgs& a) {
-    if (a.format != "json" && a.format != "md" && a.format != "latex")
-        throw InputError(fmt::format("--format '{}': expected json, md or latex", a.format));
     BoardFlags flags = a.board;
     if (a.kind == ClaimKind::crossover) {
         if (!a.at) throw InputError("certify crossover: give --at LENGTH (the preference differs at LENGTH-1 and LENGTH)");
@@ -50,28 +48,28 @@ void run(const CertifyArgs& a) {
         exit_status() = 1;
         return;
     }
-    std::string text = a.format == "md"      ? render::certificate_markdown(cert)
-                       : a.format == "latex" ? render::certificate_latex(cert)
-                                             : render::certificate_json(cert).dump(1) + "\n";
-    if (a.output.empty())
-        emit(text);
-    else
-        write_atomically(a.output, text);
+    const std::string format = a.out.chosen();
+    const std::string text = format == "md"      ? render::certificate_markdown(cert)
+                             : format == "latex" ? render::certificate_latex(cert)
+                                                 : render::certificate_json(cert).dump(1) + "\n";
+    deliver(a.out, text);
 }
 
 void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind kind) {
     auto args = std::make_shared<CertifyArgs>();
     args->kind = kind;
-    auto* cmd = parent.add_subcommand(name, std::string(help) + "\nusage: overshoot certify " + name + " SPEC... [OPTIONS]");
+    auto* cmd = parent.add_subcommand(name, help);
+    set_usage(*cmd, kind == ClaimKind::crossover ? "A B --at LENGTH" : "SPEC...", option_words_meaning);
     // Option words come from the leftovers: a declared positional would let
     // CLI11 split a custom die "[1,2,6]" into three words.
     cmd->allow_extras();
     add_board_flags(*cmd, args->board);
     if (kind == ClaimKind::crossover)
-        cmd->add_option("--at", args->at, "the length where the preference has changed from LENGTH-1");
-    cmd->add_option("-o,--output", args->output, "write the certificate to FILE (atomically) instead of stdout");
-    cmd->add_option("--format", args->format, "json (the certificate, default), md or latex (for people)");
-    cmd->add_option("--threads", args->threads, "threads to use (default: all cores)");
+        cmd->add_option("--at", args->at, "the length where the preference has changed from LENGTH-1")
+            ->check(whole_in(2, limits::max_length));
+    // json is the certificate itself; md and latex are for people.
+    add_output_flags(*cmd, args->out, {"json", "md", "latex"});
+    cmd->add_option("--threads", args->threads, "threads to use (default: all cores)")->check(whole_in(0, 4096));
     cmd->add_flag("--residual", args->residual,
                   "on boards where pieces can move backward, prove intervals by a residual certificate even where "
                   "exact elimination fits");
@@ -84,6 +82,7 @@ void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind ki
 const Registration reg(70, [](CLI::App& app) {
     auto* cmd = app.add_subcommand("certify", "write a certificate for a claim, with exact fractions and proven intervals");
     cmd->require_subcommand(1);
+    set_usage(*cmd, "cycle|crossover|winner SPEC...", "the kind of claim, then its options (see overshoot certify KIND --help)");
     add_kind(*cmd, "cycle", "each option beats the next and the last beats the first", ClaimKind::cycle);
     add_kind(*cmd, "crossover", "the preference between A and B differs at LENGTH-1 and LENGTH", ClaimKind::crossover);
     add_kind(*cmd, "winner", "the first option beats every other option listed", ClaimKind::winner);

@@ -19,6 +19,7 @@ struct ChooseArgs {
     BoardFlags board;
     std::vector<std::string> specs;
     std::optional<std::string> order;
+    OutputFlags out;
     int players = 2;
     bool distinct = false;
 };
@@ -33,10 +34,7 @@ void run(const ChooseArgs& a) {
     RaceCache cache(s.board, ptr, order);
     ChoiceResult r = solve_choice(cache, static_cast<int>(s.options.size()), a.players, a.distinct);
     render::ChoiceView view{&s.board, order, &s.options, &r};
-    if (a.board.json)
-        emit(render::choice_json(view).dump(2));
-    else
-        emit(render::choice_text(view));
+    deliver(a.out, a.out.chosen() == "json" ? render::choice_json(view).dump(2) : render::choice_text(view));
 }
 
 const Registration reg(31, [](CLI::App& app) {
@@ -46,9 +44,12 @@ const Registration reg(31, [](CLI::App& app) {
     // Option words are taken verbatim from the extras: CLI11 would split a
     // bracketed die such as "[0,2,3]" given to a positional list.
     cmd->allow_extras();
+    set_usage(*cmd, "SPEC...", option_words_meaning);
     add_board_flags(*cmd, args->board, false);
-    cmd->add_option("--order", args->order, "race order: simultaneous or seated (players sit in picking order)");
-    cmd->add_option("--players", args->players, "number of players, 2 to 6 (default 2)");
+    add_output_flags(*cmd, args->out, {"text", "json"});
+    cmd->add_option("--order", args->order, "race order: simultaneous or seated (players sit in picking order)")
+        ->check(one_of({"simultaneous", "seated"}));
+    cmd->add_option("--players", args->players, "number of players (default 2)")->check(whole_in(2, max_race_pieces));
     cmd->add_flag("--distinct", args->distinct, "no option may be picked twice");
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);

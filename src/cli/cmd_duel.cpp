@@ -3,6 +3,7 @@
 #include <optional>
 
 #include "chain/chain.hpp"
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "race/duel.hpp"
@@ -15,6 +16,7 @@ namespace {
 
 struct DuelArgs {
     BoardFlags board;
+    OutputFlags out;
     std::vector<std::string> specs;
     std::string method = "auto";
     bool exact = false;
@@ -29,14 +31,14 @@ void run(const DuelArgs& a) {
     DuelResult r = duel(ca, cb, s.order, ds);
     std::optional<ExactDuel> ex;
     if (a.exact) ex = exact_duel(ca, cb, s.order);  // refuses (exit 2) with the reason
-    if (a.board.json) {
+    if (a.out.chosen() == "json") {
         auto j = render::duel_json(s.board, s.order, s.options[0], s.options[1], r);
         if (ex) j["exact"] = render::exact_duel_json(*ex);
-        emit(j.dump(2));
+        deliver(a.out, j.dump(2));
     } else {
         std::string text = render::duel_text(s.board, s.order, s.options[0], s.options[1], r);
         if (ex) text += render::exact_duel_text(s.options[0], s.options[1], *ex);
-        emit(text);
+        deliver(a.out, text);
     }
 }
 
@@ -45,8 +47,11 @@ const Registration reg(20, [](CLI::App& app) {
     auto* cmd = app.add_subcommand("duel", "probability that option A finishes before option B, with a proven bound");
     // Option words come verbatim from the extras (see option_words).
     cmd->allow_extras();
+    set_usage(*cmd, "A B", "the two options: specs such as 1d6, 2d6, [1,2,6] or {1:3,4:1} (docs/options.md), or option names from --scenario");
     add_board_flags(*cmd, args->board);
-    cmd->add_option("--method", args->method, "auto, pairs, zone, series or product (docs/method.md)");
+    add_output_flags(*cmd, args->out, {"text", "json"});
+    cmd->add_option("--method", args->method, "auto, pairs, zone, series or product (docs/method.md)")
+        ->check(one_of({"auto", "pairs", "zone", "series", "product"}));
     cmd->add_flag("--exact", args->exact, "also give every probability as an exact fraction (docs/exact.md)");
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);

@@ -11,6 +11,7 @@
 #include <mutex>
 #include <optional>
 
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
@@ -27,7 +28,8 @@
 
 namespace overshoot::cli {
 
-std::vector<std::string> split_list(const std::vector<std::string>& values);
+void add_variant_flags(CLI::App& cmd, std::vector<std::string>& rules, std::vector<std::string>& orders,
+                       const char* order_help);
 std::vector<Variant> variants_from(const std::vector<std::string>& rules, const std::vector<std::string>& orders,
                                    Overshoot default_rule, Order default_order);
 
@@ -54,11 +56,10 @@ struct HuntArgs {
     std::optional<std::string> checkpoint;
     bool resume = false;
     int threads = 0;
-    bool json = false;
+    OutputFlags out;
     std::string method = "auto";
     long long stop_after = -1;
     std::optional<long long> memory_mib;
-    std::optional<std::string> output;
     bool plan = false, plan_only = false, timings = false;
     std::optional<int> ranks;  // --plan-only outside mpirun: plan for this many ranks
     std::optional<double> progress_every;  // seconds between progress lines
@@ -84,14 +85,6 @@ int threads_for(const HuntArgs& a, int processes_here) {
     return a.threads > 0 ? a.threads : threads_per_process(processes_here);
 }
 
-// The result or the plan: to --output (atomically) or stdout.
-void deliver(const HuntArgs& a, const std::string& out) {
-    if (a.output)
-        write_atomically(*a.output, out);
-    else
-        emit(out);
-}
-
 // `--plan`: the plan on stderr before the work.
 std::function<void(const HuntPlan&)> plan_to_stderr(const HuntSpec& spec, int threads) {
     return [&spec, threads](const HuntPlan& p) {
@@ -107,12 +100,12 @@ void print_plan_only(const HuntArgs& a, const HuntSpec& spec, int ranks, int thr
     HuntSpec s = spec;
     s.engine.threads = threads;
     const HuntPlan plan = plan_hunt(s, store, ranks, threads);
-    deliver(a, a.json ? render::hunt_plan_json(plan, spec, threads).dump(2) + "\n"
-                      : render::hunt_plan_text(plan, spec, threads));
+    deliver(a.out, a.out.chosen() == "json" ? render::hunt_plan_json(plan, spec, threads).dump(2) + "\n"
+                                            : render::hunt_plan_text(plan, spec, threads));
 }
 
 void finish(const HuntArgs& a, const HuntResult& r, const HuntSpec& spec) {
-    deliver(a, a.json ? render::hunt_json(r, spec).dump(2) + "\n" : render::hunt_text(r, spec));
+    deliver(a.out, a.out.chosen() == "json" ? render::hunt_json(r, spec).dump(2) + "\n" : render::hunt_text(r, spec));
     if (!r.complete) {
         std::fprintf(stderr, "overshoot: hunt interrupted: %zu of %zu pairs known%s\n", r.pairs_known, r.pairs_total,
                      spec.checkpoint.empty() ? "" : "; continue with --resume");
@@ -136,7 +129,7 @@ std::string id_runs(const std::vector<std::size_t>& ids) {
 void run_ranks(const HuntArgs& a, HuntSpec& spec) {
     cluster::Ranks ranks;
     // Rank 0 alone plans and speaks; the others have nothing to add.
-    if (a.ranks || a.plan_only) {
+    if (a.plan_only) {
         if (ranks.rank() != 0) return;
         if (a.ranks) throw InputError("--ranks is for --plan-only outside mpirun; under mpirun the ranks are mpirun's");
         print_plan_only(a, spec, ranks.size(), threads_for(a, ranks.local_size()));
@@ -183,16 +176,11 @@ void run_ranks(const HuntArgs& a, HuntSpec& spec) {
 #endif
 
 void run(const HuntArgs& a) {
-    if (a.threads < 0) throw InputError("--threads must be 0 (all cores) or more");
-    if (a.lengths.empty()) throw InputError("no lengths: give --lengths LO..HI");
-    if (a.list < 1) throw InputError("--list must be at least 1");
-    if (a.memory_mib) {
-        if (*a.memory_mib < 1) throw InputError("--memory-limit must be at least 1 MiB");
-        limits::set_memory_bytes(static_cast<std::uint64_t>(*a.memory_mib) << 20);
-    }
+    apply_memory_limit(a.memory_mib);
     HuntSpec spec;
     spec.options = parse_families(a.family);
-    spec.grid = parse_lengths(a.lengths, a.step);
+    const auto [lo, hi] = parse_range(a.lengths, "--lengths");
+    spec.grid = LengthGrid{lo, hi, a.step};
     spec.variants = variants_from(a.rules, a.orders, Overshoot::stay, Order::simultaneous);
     spec.cycle_length = a.cycle_length;
     spec.min_strength = a.min_strength;
@@ -213,7 +201,6 @@ void run(const HuntArgs& a) {
     const bool bar = ::isatty(2) != 0 && !a.progress_every;
     std::mutex bar_mutex;
     if (a.progress_every) {
-        if (!(*a.progress_every > 0)) throw InputError("--progress-every must be a positive number of seconds");
         spec.progress = progress_lines(*a.progress_every, "");
     } else if (bar)
         spec.progress = [&](std::size_t done, std::size_t total) {
@@ -232,8 +219,6 @@ void run(const HuntArgs& a) {
     }
 #endif
     if (a.timings) throw InputError("--timings reports the time of each MPI rank: run the hunt under mpirun");
-    if (a.ranks && !a.plan_only) throw InputError("--ranks goes with --plan-only (under mpirun the ranks are mpirun's)");
-    if (a.ranks && (*a.ranks < 1 || *a.ranks > 100000)) throw InputError("--ranks must be between 1 and 100000");
     if (a.plan_only) {
         print_plan_only(a, spec, a.ranks.value_or(1), threads_for(a, 1));
         return;
@@ -254,28 +239,40 @@ const Registration reg(70, [](CLI::App& app) {
     // Family words come from the leftovers so that CLI11 never splits
     // "1..6d{4,6,8}" or "[0,3,3,5]" at its commas.
     cmd->allow_extras();
-    cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI");
-    cmd->add_option("--step", args->step, "step between lengths (default 1)");
-    cmd->add_option("--overshoot", args->rules, "rule(s): stay, bounce, pass; repeat or comma-separate");
-    cmd->add_option("--order", args->orders, "turn order(s): simultaneous, coin; repeat or comma-separate");
-    cmd->add_option("--cycle-length", args->cycle_length, "options in a wanted cycle (default 3)");
-    cmd->add_option("--min-strength", args->min_strength, "smallest margin of a wanted cycle, as a probability (e.g. 0.01)");
+    set_usage(*cmd, "FAMILY... --lengths LO..HI",
+              "the options searched: families such as 1..6d{4,6,8,10,12,20} and specs such as 1d6 or [0,3,3,5] "
+              "(docs/sweep.md)");
+    cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI")
+        ->required()
+        ->check(range_in(1, limits::max_length));
+    cmd->add_option("--step", args->step, "step between lengths (default 1)")->check(whole_in(1, limits::max_length));
+    add_variant_flags(*cmd, args->rules, args->orders,
+                      "turn order(s): simultaneous, coin; repeat the flag or comma-separate");
+    cmd->add_option("--cycle-length", args->cycle_length, "options in a wanted cycle (default 3)")->check(whole_in(3, 1000));
+    cmd->add_option("--min-strength", args->min_strength, "smallest margin of a wanted cycle, as a probability (e.g. 0.01)")
+        ->check(real_in(0, 1));
     cmd->add_option("--require", args->require, "an option name every wanted cycle contains");
-    cmd->add_option("--list", args->list, "most sets listed (default 100; the totals count all)");
-    cmd->add_option("--checkpoint", args->checkpoint, "keep finished work in this file (written atomically)");
-    cmd->add_flag("--resume", args->resume, "continue from --checkpoint without redoing finished pairs");
-    cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)");
-    cmd->add_flag("--json", args->json, "print one JSON document");
-    cmd->add_option("--method", args->method, "all-lengths method: auto, series or pairs");
+    cmd->add_option("--list", args->list, "most sets listed (default 100; the totals count all)")
+        ->check(whole_in(1, 1'000'000'000));
+    auto* checkpoint =
+        cmd->add_option("--checkpoint", args->checkpoint, "keep finished work in this file (written atomically)");
+    cmd->add_flag("--resume", args->resume, "continue from --checkpoint without redoing finished pairs")->needs(checkpoint);
+    cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)")->check(whole_in(0, 4096));
+    add_output_flags(*cmd, args->out, {"text", "json"});
+    cmd->add_option("--method", args->method, "all-lengths method: auto, series or pairs")
+        ->check(one_of({"auto", "series", "pairs"}));
     cmd->add_option("--stop-after-pairs", args->stop_after,
-                    "stop as if interrupted after this many new pairs (for batches and tests)");
-    cmd->add_option("--memory-limit", args->memory_mib, "memory cap in MiB for one computation (default 4096)");
-    cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
+                    "stop as if interrupted after this many new pairs (for batches and tests)")
+        ->check(whole_in(0, 1'000'000'000'000));
+    add_memory_limit(*cmd, args->memory_mib);
     cmd->add_flag("--plan", args->plan, "print the shard plan (shards, estimated work, ranks) on stderr before the work");
-    cmd->add_flag("--plan-only", args->plan_only, "print the shard plan and stop: nothing is computed");
-    cmd->add_option("--ranks", args->ranks, "with --plan-only outside mpirun: plan for this many ranks");
+    auto* plan_only = cmd->add_flag("--plan-only", args->plan_only, "print the shard plan and stop: nothing is computed");
+    cmd->add_option("--ranks", args->ranks, "with --plan-only outside mpirun: plan for this many ranks")
+        ->needs(plan_only)
+        ->check(whole_in(1, 100000));
     cmd->add_option("--progress-every", args->progress_every,
-                    "print a progress line on stderr every this many seconds (under mpirun: one per rank)");
+                    "print a progress line on stderr every this many seconds (under mpirun: one per rank)")
+        ->check(real_in(0, 1e9, true));
     cmd->add_flag("--timings", args->timings, "under mpirun: print each rank's time and the imbalance on stderr");
     cmd->callback([args, cmd] {
         args->family = option_words(*cmd);

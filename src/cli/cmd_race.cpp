@@ -4,10 +4,12 @@
 #include <memory>
 
 #include "chain/chain.hpp"
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/race_flags.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
+#include "core/limits.hpp"
 #include "race/multi.hpp"
 #include "render/multi.hpp"
 
@@ -24,19 +26,7 @@ RaceOrder race_order_of(const std::optional<std::string>& flag, const BoardFlags
     return RaceOrder::simultaneous;
 }
 
-std::vector<int> parse_starts(const std::vector<std::string>& words, std::size_t pieces) {
-    std::vector<int> out;
-    for (const auto& w : words) {
-        std::size_t pos = 0;
-        int v = 0;
-        try {
-            v = std::stoi(w, &pos);
-        } catch (const std::exception&) {
-            pos = 0;
-        }
-        if (pos == 0 || pos != w.size()) throw InputError(fmt::format("--start '{}': expected a square number", w));
-        out.push_back(v);
-    }
+std::vector<int> parse_starts(const std::vector<int>& out, std::size_t pieces) {
     if (!out.empty() && out.size() != pieces)
         throw InputError(fmt::format("--start is given {} times for {} pieces: give one per piece, in order", out.size(), pieces));
     return out;
@@ -48,7 +38,8 @@ struct RaceArgs {
     BoardFlags board;
     std::vector<std::string> specs;
     std::optional<std::string> order;
-    std::vector<std::string> starts;
+    std::vector<int> starts;
+    OutputFlags out;
 };
 
 void run(const RaceArgs& a) {
@@ -63,10 +54,7 @@ void run(const RaceArgs& a) {
     for (const auto& c : chains) ptr.push_back(&c);
     RaceResult r = race(ptr, resolved, order);
     render::RaceView view{&s.board, order, &s.options, starts, &r};
-    if (a.board.json)
-        emit(render::race_json(view).dump(2));
-    else
-        emit(render::race_text(view));
+    deliver(a.out, a.out.chosen() == "json" ? render::race_json(view).dump(2) : render::race_text(view));
 }
 
 const Registration reg(30, [](CLI::App& app) {
@@ -75,9 +63,15 @@ const Registration reg(30, [](CLI::App& app) {
     // Option words are taken verbatim from the extras: CLI11 would split a
     // bracketed die such as "[0,2,3]" given to a positional list.
     cmd->allow_extras();
+    set_usage(*cmd, "SPEC SPEC [SPEC...]", "2 to 6 pieces, one option each: specs such as 1d6 or [1,2,6], or option names from --scenario");
     add_board_flags(*cmd, args->board, false);
-    cmd->add_option("--order", args->order, "simultaneous (same-round finishers share) or seated (listed order, first to land wins)");
-    cmd->add_option("--start", args->starts, "start square of each piece, in order (repeat once per piece)");
+    add_output_flags(*cmd, args->out, {"text", "json"});
+    cmd->add_option("--order", args->order, "simultaneous (same-round finishers share) or seated (listed order, first to land wins)")
+        ->check(one_of({"simultaneous", "seated"}));
+    cmd->add_option("--start", args->starts, "start square of each piece, in order (repeat the flag once per piece, or A,B,...)")
+        ->allow_extra_args(false)
+        ->delimiter(',')
+        ->check(whole_in(0, limits::max_length));
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);
         run(*args);
@@ -87,29 +81,3 @@ const Registration reg(30, [](CLI::App& app) {
 }  // namespace
 }  // namespace overshoot::cli
 
-namespace overshoot::cli {
-
-std::pair<int, int> parse_range(const std::string& text, const char* what) {
-    auto number = [&](const std::string& w) {
-        std::size_t pos = 0;
-        int v = 0;
-        try {
-            v = std::stoi(w, &pos);
-        } catch (const std::exception&) {
-            pos = 0;
-        }
-        if (pos == 0 || pos != w.size())
-            throw InputError(fmt::format("{} '{}': expected LO..HI or one number", what, text));
-        return v;
-    };
-    const auto dots = text.find("..");
-    if (dots == std::string::npos) {
-        int v = number(text);
-        return {v, v};
-    }
-    int lo = number(text.substr(0, dots)), hi = number(text.substr(dots + 2));
-    if (lo > hi) throw InputError(fmt::format("{} '{}': the low end is above the high end", what, text));
-    return {lo, hi};
-}
-
-}  // namespace overshoot::cli

@@ -7,11 +7,12 @@
 
 #include "chain/chain.hpp"
 #include "chain/profile.hpp"
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/race_flags.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
-#include "core/io.hpp"
+#include "core/limits.hpp"
 #include "race/choice.hpp"
 #include "race/multi.hpp"
 #include "render/figures.hpp"
@@ -27,11 +28,10 @@ namespace {
 struct ReportArgs {
     BoardFlags board;
     std::vector<std::string> specs;
-    std::optional<std::string> output;
+    OutputFlags out;
     std::optional<std::string> lengths;
     int step = 1;
     std::optional<std::string> figure;
-    std::optional<std::string> svg;
     bool race = false;
     std::optional<std::string> race_order;
     int choose = 0;
@@ -47,17 +47,12 @@ constexpr double distribution_bound = 1e-9;
 constexpr long long distribution_rows = 200'000;
 
 void run(const ReportArgs& a) {
-    if (a.board.json) throw InputError("report writes HTML (or SVG with --svg); --json does not apply");
-    if (a.figure.has_value() != a.svg.has_value())
-        throw InputError("--figure and --svg go together: --figure digraph|sweep|distribution --svg FILE");
-    if (a.figure && *a.figure != "digraph" && *a.figure != "sweep" && *a.figure != "distribution")
-        throw InputError(fmt::format("unknown --figure '{}': use digraph, sweep or distribution", *a.figure));
-    if (!a.figure && !a.output) throw InputError("say where to write: -o FILE.html (or --figure NAME --svg FILE)");
+    // One figure alone is SVG; the whole report is HTML.
+    if (a.figure && a.out.format == std::optional<std::string>("html"))
+        throw InputError("--figure writes one SVG figure: drop --format html (or drop --figure for the HTML report)");
+    if (!a.figure && a.out.chosen() == "svg")
+        throw InputError("--format svg writes one figure: say which with --figure digraph|sweep|distribution");
     if (a.figure && *a.figure == "sweep" && !a.lengths) throw InputError("--figure sweep needs --lengths LO..HI");
-    if (a.threads < 0) throw InputError("--threads must be 0 (all cores) or more");
-    if (a.choose != 0 && (a.choose < 2 || a.choose > max_race_pieces))
-        throw InputError(fmt::format("--choose {}: expected 2 to {} players", a.choose, max_race_pieces));
-    if (a.distinct && a.choose == 0) throw InputError("--distinct applies to --choose only");
 
     Setup s = resolve_setup(a.board, a.specs, 1, 100);
     const std::string fig = a.figure.value_or("");
@@ -103,7 +98,8 @@ void run(const ReportArgs& a) {
     std::optional<SweepResult> sweep;
     if (a.lengths && (want_all || fig == "sweep")) {
         SweepSpec spec;
-        spec.grid = parse_lengths(*a.lengths, a.step);
+        const auto [lo, hi] = parse_range(*a.lengths, "--lengths");
+        spec.grid = LengthGrid{lo, hi, a.step};
         spec.options = s.options;
         spec.jumps = s.board.jumps;
         spec.variants = {Variant{s.board.rule, s.order}};
@@ -119,7 +115,7 @@ void run(const ReportArgs& a) {
         render::svg::Element e = fig == "digraph" ? render::digraph_figure(*tour)
                                  : fig == "sweep" ? render::sweep_figure(*sweep)
                                                   : render::distribution_figure(names, in.distributions);
-        write_atomically(*a.svg, render::svg::file(e));
+        deliver(a.out, render::svg::file(e));
         return;
     }
 
@@ -149,30 +145,35 @@ void run(const ReportArgs& a) {
         fair = balance_lengths(s.board, s.options, race_order, lo, hi);
         in.fair_lengths = &*fair;
     }
-    write_atomically(*a.output, render::report_html(in));
+    deliver(a.out, render::report_html(in));
 }
 
 const Registration reg(80, [](CLI::App& app) {
     auto args = std::make_shared<ReportArgs>();
     auto* cmd = app.add_subcommand(
-        "report", "one self-contained HTML report with figures (or one SVG figure alone)\n"
-        "usage: overshoot report [SPEC...] -o FILE.html   (specs or scenario names; default: the scenario's options)");
+        "report", "one self-contained HTML report with figures (or one SVG figure alone)");
+    set_usage(*cmd, "[SPEC...]", option_words_meaning);
     // Option words come from the leftovers: a declared positional would let
     // CLI11 split a custom die "[1,2,6]" into three words.
     cmd->allow_extras();
     add_board_flags(*cmd, args->board);
-    cmd->add_option("-o,--output", args->output, "the HTML file to write (atomically)");
-    cmd->add_option("--lengths", args->lengths, "also sweep this range of lengths LO..HI (adds the sweep figure)");
-    cmd->add_option("--step", args->step, "step between swept lengths (default 1)");
-    cmd->add_option("--figure", args->figure, "write one figure alone: digraph, sweep or distribution (with --svg)");
-    cmd->add_option("--svg", args->svg, "the SVG file for --figure (written atomically)");
+    add_output_flags(*cmd, args->out, {"html", "svg"});
+    cmd->add_option("--lengths", args->lengths, "also sweep this range of lengths LO..HI (adds the sweep figure)")
+        ->check(range_in(1, limits::max_length));
+    cmd->add_option("--step", args->step, "step between swept lengths (default 1)")->check(whole_in(1, limits::max_length));
+    cmd->add_option("--figure", args->figure, "write one figure alone, as SVG: digraph, sweep or distribution")
+        ->check(one_of({"digraph", "sweep", "distribution"}));
     cmd->add_flag("--race", args->race, "add a race of all the options, one piece each (2 to 6)");
-    cmd->add_option("--race-order", args->race_order, "order of the race sections: simultaneous or seated");
-    cmd->add_option("--choose", args->choose, "add the choice game of this many players (2 to 6)");
-    cmd->add_flag("--distinct", args->distinct, "in the choice game no option may be picked twice");
-    cmd->add_option("--balance-starts", args->balance_starts, "add the fairest head starts on squares LO..HI");
-    cmd->add_option("--balance-lengths", args->balance_lengths, "add the fairest lengths in LO..HI");
-    cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)");
+    cmd->add_option("--race-order", args->race_order, "order of the race sections: simultaneous or seated")
+        ->check(one_of({"simultaneous", "seated"}));
+    auto* choose = cmd->add_option("--choose", args->choose, "add the choice game of this many players")
+                       ->check(whole_in(2, max_race_pieces));
+    cmd->add_flag("--distinct", args->distinct, "in the choice game no option may be picked twice")->needs(choose);
+    cmd->add_option("--balance-starts", args->balance_starts, "add the fairest head starts on squares LO..HI")
+        ->check(range_in(0, limits::max_length));
+    cmd->add_option("--balance-lengths", args->balance_lengths, "add the fairest lengths in LO..HI")
+        ->check(range_in(1, limits::max_length));
+    cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)")->check(whole_in(0, 4096));
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);
         run(*args);

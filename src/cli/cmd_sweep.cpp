@@ -5,29 +5,27 @@
 #include <memory>
 #include <optional>
 
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
-#include "core/io.hpp"
+#include "core/limits.hpp"
 #include "render/sweep.hpp"
 #include "sweep/sweep.hpp"
 
 namespace overshoot::cli {
 
-// Comma lists and repeated flags: "stay,pass" or --overshoot stay --overshoot pass.
-std::vector<std::string> split_list(const std::vector<std::string>& values) {
-    std::vector<std::string> out;
-    for (const auto& v : values) {
-        std::size_t start = 0;
-        while (true) {
-            std::size_t c = v.find(',', start);
-            std::string part = v.substr(start, c == std::string::npos ? std::string::npos : c - start);
-            if (!part.empty()) out.push_back(part);
-            if (c == std::string::npos) break;
-            start = c + 1;
-        }
-    }
-    return out;
+void add_variant_flags(CLI::App& cmd, std::vector<std::string>& rules, std::vector<std::string>& orders,
+                       const char* order_help) {
+    // One value per flag, or a comma list: a rule never swallows the option words after it.
+    cmd.add_option("--overshoot", rules, "rule(s): stay, bounce, pass; repeat the flag or comma-separate for variants")
+        ->allow_extra_args(false)
+        ->delimiter(',')
+        ->check(one_of({"stay", "bounce", "pass"}));
+    cmd.add_option("--order", orders, order_help)
+        ->allow_extra_args(false)
+        ->delimiter(',')
+        ->check(one_of({"simultaneous", "a-first", "b-first", "coin"}));
 }
 
 // The rule variants: every overshoot rule with every order, rules outer.
@@ -35,8 +33,8 @@ std::vector<Variant> variants_from(const std::vector<std::string>& rules, const 
                                    Overshoot default_rule, Order default_order) {
     std::vector<Overshoot> rs;
     std::vector<Order> os;
-    for (const auto& r : split_list(rules)) rs.push_back(parse_overshoot(r));
-    for (const auto& o : split_list(orders)) os.push_back(parse_order(o));
+    for (const auto& r : rules) rs.push_back(parse_overshoot(r));
+    for (const auto& o : orders) os.push_back(parse_order(o));
     if (rs.empty()) rs.push_back(default_rule);
     if (os.empty()) os.push_back(default_order);
     std::vector<Variant> out;
@@ -60,20 +58,17 @@ struct SweepArgs {
     CLI::Option* jump_option = nullptr;
     std::string anchor = "start";
     std::optional<std::string> scenario;
-    bool json = false, csv = false;
+    OutputFlags out;
     std::string method = "auto";
     int threads = 0;
     int max_cycle_length = 6;
     std::optional<long long> memory_mib;
-    std::optional<std::string> output;
 };
 
 void run(const SweepArgs& a) {
-    if (a.json && a.csv) throw InputError("give either --json or --csv, not both");
-    if (a.threads < 0) throw InputError("--threads must be 0 (all cores) or more");
-    if (a.lengths.empty()) throw InputError("no lengths: give --lengths LO..HI");
     SweepSpec spec;
-    spec.grid = parse_lengths(a.lengths, a.step);
+    const auto [lo, hi] = parse_range(a.lengths, "--lengths");
+    spec.grid = LengthGrid{lo, hi, a.step};
     // Options, jumps and the scenario's defaults through the shared resolver,
     // on the longest board of the sweep (which validates the jumps).
     BoardFlags f;
@@ -92,13 +87,11 @@ void run(const SweepArgs& a) {
     spec.engine.method = parse_length_method(a.method);
     spec.engine.threads = a.threads;
     spec.max_cycle_length = a.max_cycle_length;
-    if (a.max_cycle_length < 3) throw InputError("--max-cycle-length must be at least 3");
     SweepResult r = run_sweep(spec);
-    std::string out = a.json ? render::sweep_json(r).dump(2) + "\n" : a.csv ? render::sweep_csv(r) : render::sweep_text(r);
-    if (a.output)
-        write_atomically(*a.output, out);
-    else
-        emit(out);
+    const std::string format = a.out.chosen();
+    deliver(a.out, format == "json" ? render::sweep_json(r).dump(2) + "\n"
+                   : format == "csv" ? render::sweep_csv(r)
+                                     : render::sweep_text(r));
 }
 
 const Registration reg(60, [](CLI::App& app) {
@@ -108,24 +101,30 @@ const Registration reg(60, [](CLI::App& app) {
     // Option words come from the leftovers: a declared positional would let
     // CLI11 split a custom die "[1,2,6]" into three words.
     cmd->allow_extras();
-    cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI (or one length)");
-    cmd->add_option("--step", args->step, "step between swept lengths (default 1)");
-    cmd->add_option("--overshoot", args->rules, "rule(s): stay, bounce, pass; repeat or comma-separate for variants");
-    cmd->add_option("--order", args->orders,
-                    "turn order(s): simultaneous, coin (a-first, b-first for exactly two options); repeat or "
-                    "comma-separate");
-    args->jump_option = cmd->add_option("--jump", args->jumps, "a jump FROM:TO on the longest board (repeatable)");
+    set_usage(*cmd, "SPEC... --lengths LO..HI", option_words_meaning);
+    cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI (or one length)")
+        ->required()
+        ->check(range_in(1, limits::max_length));
+    cmd->add_option("--step", args->step, "step between swept lengths (default 1)")->check(whole_in(1, limits::max_length));
+    add_variant_flags(*cmd, args->rules, args->orders,
+                      "turn order(s): simultaneous, coin (a-first, b-first for exactly two options); repeat the flag "
+                      "or comma-separate");
+    args->jump_option = cmd->add_option("--jump", args->jumps,
+                                        "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO")
+                            ->allow_extra_args(false)
+                            ->delimiter(',');
     cmd->add_option("--anchor", args->anchor,
                     "jumps stay at the same squares from the start (start) or the same distance from the finish "
-                    "(finish)");
+                    "(finish)")
+        ->check(one_of({"start", "finish"}));
     cmd->add_option("--scenario", args->scenario, "a TOML scenario file (flags override it)");
-    cmd->add_flag("--json", args->json, "print one JSON document");
-    cmd->add_flag("--csv", args->csv, "print CSV: one row per length and pair");
-    cmd->add_option("--method", args->method, "all-lengths method: auto, series or pairs (docs/sweep.md)");
-    cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)");
-    cmd->add_option("--max-cycle-length", args->max_cycle_length, "longest cycle listed per length (default 6)");
-    cmd->add_option("--memory-limit", args->memory_mib, "memory cap in MiB for one computation (default 4096)");
-    cmd->add_option("--output", args->output, "write to this file (atomically) instead of stdout");
+    add_output_flags(*cmd, args->out, {"text", "json", "csv"});
+    cmd->add_option("--method", args->method, "all-lengths method: auto, series or pairs (docs/sweep.md)")
+        ->check(one_of({"auto", "series", "pairs"}));
+    cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)")->check(whole_in(0, 4096));
+    cmd->add_option("--max-cycle-length", args->max_cycle_length, "longest cycle listed per length (default 6)")
+        ->check(whole_in(3, 1000));
+    add_memory_limit(*cmd, args->memory_mib);
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);
         run(*args);

@@ -7,6 +7,7 @@
 #include <optional>
 
 #include "chain/chain.hpp"
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
@@ -28,20 +29,14 @@ struct TournamentArgs {
     std::optional<double> tolerance;
     int max_cycle_length = 6;
     long long cycle_cap = 10'000;
-    std::optional<std::string> format;
-    std::optional<std::string> output;
+    OutputFlags out;
     std::string method = "auto";
     int threads = 0;
     bool exact = false;
 };
 
 void run(const TournamentArgs& a) {
-    std::string format = a.format.value_or(a.board.json ? "json" : "text");
-    if (a.board.json && format != "json") throw InputError("give either --json or --format, not both");
-    if (format != "text" && format != "json" && format != "md" && format != "latex" && format != "csv" && format != "dot")
-        throw InputError(fmt::format("unknown --format '{}': use text, json, md, latex, csv or dot", format));
-    if (a.cycle_cap < 0) throw InputError("--cycle-cap must be 0 or more");
-    if (a.threads < 0) throw InputError("--threads must be 0 (all cores) or more");
+    const std::string format = a.out.chosen();
     TournamentSettings settings;
     settings.max_cycle_length = a.max_cycle_length;
     settings.cycle_cap = static_cast<std::size_t>(a.cycle_cap);
@@ -61,8 +56,6 @@ void run(const TournamentArgs& a) {
         src.tolerance = a.tolerance.value_or(0.0);
         matrix = read_matrix_csv(*a.matrix, src.tolerance);
     } else {
-        if (a.tolerance)
-            throw InputError("--tolerance applies to --matrix only; races carry their own proven error bounds");
         Setup s = resolve_setup(a.board, a.specs, 1, 100'000);
         DuelSettings ds;
         ds.method = parse_duel_method(a.method);
@@ -94,30 +87,32 @@ void run(const TournamentArgs& a) {
         out = render::tournament_dot(t, src);
     else
         out = render::tournament_text(t, src);
-    if (a.output)
-        write_atomically(*a.output, out);
-    else
-        emit(out);
+    deliver(a.out, out);
 }
 
 const Registration reg(40, [](CLI::App& app) {
     auto args = std::make_shared<TournamentArgs>();
     auto* cmd = app.add_subcommand(
-        "tournament", "every option against every other: dominance digraph, cycles, counters, equilibrium mix\n"
-        "usage: overshoot tournament SPEC... [OPTIONS]   (specs or scenario names; default: the scenario's options)");
+        "tournament", "every option against every other: dominance digraph, cycles, counters, equilibrium mix");
+    set_usage(*cmd, "[SPEC...]", option_words_meaning);
     // The option words are taken from the leftovers: a declared positional would let
     // CLI11 split a custom die "[1,2,6]" into three words.
     cmd->allow_extras();
     add_board_flags(*cmd, args->board);
-    cmd->add_option("--matrix", args->matrix, "read P(row beats column) from a CSV file instead of racing (docs/tournament.md)");
-    cmd->add_option("--tolerance", args->tolerance, "with --matrix: the error bound of every margin (default 0)");
-    cmd->add_option("--max-cycle-length", args->max_cycle_length, "longest cycle listed (default 6, at least 3)");
-    cmd->add_option("--cycle-cap", args->cycle_cap, "most cycles listed, strongest first (default 10000)");
-    cmd->add_option("--format", args->format, "text, json, md, latex, csv (the --matrix format) or dot");
-    cmd->add_option("--output", args->output, "write to this file instead of stdout");
-    cmd->add_option("--method", args->method, "duel method: auto, pairs, zone, series or product (docs/method.md)");
+    add_output_flags(*cmd, args->out, {"text", "json", "md", "latex", "csv", "dot"});
+    auto* matrix = cmd->add_option("--matrix", args->matrix,
+                                   "read P(row beats column) from a CSV file instead of racing (docs/tournament.md)");
+    cmd->add_option("--tolerance", args->tolerance, "with --matrix: the error bound of every margin (default 0)")
+        ->needs(matrix)
+        ->check(real_in(0, 1));
+    cmd->add_option("--max-cycle-length", args->max_cycle_length, "longest cycle listed (default 6, at least 3)")
+        ->check(whole_in(3, 1000));
+    cmd->add_option("--cycle-cap", args->cycle_cap, "most cycles listed, strongest first (default 10000)")
+        ->check(whole_in(0, 1'000'000'000));
+    cmd->add_option("--method", args->method, "duel method: auto, pairs, zone, series or product (docs/method.md)")
+        ->check(one_of({"auto", "pairs", "zone", "series", "product"}));
     cmd->add_flag("--exact", args->exact, "with --json: also P(row beats column) and margins as exact fractions (docs/exact.md)");
-    cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)");
+    cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)")->check(whole_in(0, 4096));
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);
         run(*args);

@@ -1,5 +1,6 @@
 #pragma once
-// Board flags shared by every analysis command, and their merge with a scenario.
+// Flags shared by every command: the board flags and their merge with a
+// scenario, the output flags (one model for every command), the usage line.
 #include <CLI/CLI.hpp>
 #include <optional>
 #include <string>
@@ -17,7 +18,6 @@ struct BoardFlags {
     std::vector<std::string> jumps;
     std::optional<std::string> order;
     std::optional<std::string> scenario;
-    bool json = false;
     std::optional<long long> memory_mib;
     CLI::Option* jump_option = nullptr;
 };
@@ -41,7 +41,38 @@ Setup resolve_setup(const BoardFlags& flags, const std::vector<std::string>& wor
 // looks like a flag is refused as unknown.
 std::vector<std::string> option_words(const CLI::App& cmd);
 
-// Prints text or a JSON document (with a final newline) to stdout.
+// Where and in what format a command's result goes, the same on every
+// command: -o/--output FILE ("-" or none: stdout) and --format NAME from the
+// formats the command offers (the first is the default); --json and --csv are
+// short for --format json and --format csv where those are offered.
+struct OutputFlags {
+    std::vector<std::string> formats;
+    std::optional<std::string> output;
+    std::optional<std::string> format;
+    bool json = false, csv = false;
+    // The format asked for (the flags exclude each other, so at most one is set).
+    std::string chosen() const;
+};
+void add_output_flags(CLI::App& cmd, OutputFlags& flags, std::vector<std::string> formats);
+
+// Writes the result (with a final newline) where the output flags say: a file
+// through write_atomically, else stdout, checked.
+void deliver(const OutputFlags& flags, const std::string& text);
+
+// Prints to stdout and checks the write: a failure throws InputError.
 void emit(const std::string& text);
+
+// The positionals of a command for its usage line ("A B", "SPEC...") and a
+// sentence saying what they are; shown by --help.
+void set_usage(CLI::App& cmd, std::string positionals, std::string meaning);
+struct Usage {
+    std::string positionals, meaning;
+};
+const Usage* usage_of(const CLI::App* cmd);
+
+// Words the option words of most commands are: specs or scenario names.
+inline constexpr const char* option_words_meaning =
+    "options: specs such as 1d6, 2d6, [1,2,6] or {1:3,4:1} (docs/options.md), or option names from --scenario "
+    "(none: every option of the scenario)";
 
 }  // namespace overshoot::cli

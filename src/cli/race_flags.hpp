@@ -4,6 +4,7 @@
 #include <string>
 #include <vector>
 
+#include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "race/multi.hpp"
 
@@ -13,10 +14,7 @@ namespace overshoot::cli {
 // whose duel orders are refused with a pointer to the two that apply.
 RaceOrder race_order_of(const std::optional<std::string>& flag, const BoardFlags& board);
 
-// --start words as square numbers, one per piece (or none).
-std::vector<int> parse_starts(const std::vector<std::string>& words, std::size_t pieces);
-
-// "LO..HI" (or one number) as an inclusive range; `what` names the flag.
-std::pair<int, int> parse_range(const std::string& text, const char* what);
+// --start squares, checked to be one per piece (or none).
+std::vector<int> parse_starts(const std::vector<int>& squares, std::size_t pieces);
 
 }  // namespace overshoot::cli

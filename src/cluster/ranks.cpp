@@ -111,6 +111,16 @@ bool launched_by_mpirun() {
            std::getenv("PMI_RANK") != nullptr;
 }
 
+void settle_before_exit() {
+    int started = 0, ended = 0;
+    MPI_Initialized(&started);
+    MPI_Finalized(&ended);
+    if (started || ended) return;
+    MPI_Init(nullptr, nullptr);
+    MPI_Barrier(MPI_COMM_WORLD);
+    MPI_Finalize();
+}
+
 Ranks::Ranks() {
     int provided = 0;
     MPI_Init_thread(nullptr, nullptr, MPI_THREAD_FUNNELED, &provided);

@@ -19,6 +19,12 @@ namespace overshoot::cluster {
 // True when this process was started by mpirun (its environment says so).
 bool launched_by_mpirun();
 
+// Bad input that every rank meets before MPI starts (an argument, a family):
+// rank 0 says so, and this holds every rank at a barrier until it has, since
+// mpirun ends the whole job when the first rank exits. Nothing when MPI has
+// already started or ended.
+void settle_before_exit();
+
 // MPI for the lifetime of the object.
 class Ranks {
 public:

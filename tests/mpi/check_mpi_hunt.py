@@ -174,10 +174,16 @@ def kill_and_resume(d):
 
 def errors(d):
     """Bad input: one line, once. A rank that fails: its line, the whole job ends, no output."""
-    st, _, err = run(mpi(2, ["hunt", "1..3d{4,6}", "--lengths", "10..20", "--cycle-length", "2"]), d)
-    lines = [l for l in err.splitlines() if l.startswith("overshoot:")]
-    if st == 0 or lines != ["overshoot: error: --cycle-length 2: a cycle has at least 3 options"]:
-        fail(f"bad input under 2 ranks: exit {st}, lines {lines}")
+    # A bad argument, a bad family and a bad board: each said once, by rank 0.
+    for args, line in [
+            (["hunt", "1..3d{4,6}", "--lengths", "10..20", "--cycle-length", "2"],
+             "overshoot: error: --cycle-length 2 is outside 3..1000 (see --help)"),
+            (["hunt", "1..3q{4,6}", "--lengths", "10..20"], None),
+            (["hunt", "1..3d{4,6}", "--lengths", "10..20", "--require", "nosuch"], None)]:
+        st, _, err = run(mpi(2, args), d)
+        lines = [l for l in err.splitlines() if l.startswith("overshoot:")]
+        if st == 0 or len(lines) != 1 or (line is not None and lines[0] != line):
+            fail(f"bad input under 2 ranks ({' '.join(args)}): exit {st}, lines {lines}")
     out = os.path.join(d, "limit.txt")
     st, _, err = run(mpi(2, ["hunt", "1..6d{4,20}", "--lengths", "10..2000", "--memory-limit", "2",
                              "--threads", "1", "--output", out]), d)

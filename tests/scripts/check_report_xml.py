@@ -88,7 +88,7 @@ def main():
         # 1. Digraph against tournament --json (600 squares: a cycle of the three options).
         tj = json.loads(run(binary, "tournament", "--scenario", scenario, "--json").stdout)
         dig = os.path.join(tmp, "digraph.svg")
-        run(binary, "report", "--scenario", scenario, "--figure", "digraph", "--svg", dig)
+        run(binary, "report", "--scenario", scenario, "--figure", "digraph", "-o", dig)
         root, _ = parse_svg_file(dig)
         texts = svg_texts(root)
         for name in tj["options"]:
@@ -105,7 +105,7 @@ def main():
         lengths = "20..140"
         sj = json.loads(run(binary, "sweep", "--scenario", scenario, "--lengths", lengths, "--json").stdout)
         sw = os.path.join(tmp, "sweep.svg")
-        run(binary, "report", "--scenario", scenario, "--lengths", lengths, "--figure", "sweep", "--svg", sw)
+        run(binary, "report", "--scenario", scenario, "--lengths", lengths, "--figure", "sweep", "-o", sw)
         root, _ = parse_svg_file(sw)
         texts = svg_texts(root)
         joined = "\n".join(texts)
@@ -121,7 +121,7 @@ def main():
 
         # 3. Distribution figure.
         dist = os.path.join(tmp, "distribution.svg")
-        run(binary, "report", "--scenario", scenario, "--figure", "distribution", "--svg", dist)
+        run(binary, "report", "--scenario", scenario, "--figure", "distribution", "-o", dist)
         root, _ = parse_svg_file(dist)
         texts = svg_texts(root)
         for name in tj["options"]:
@@ -130,7 +130,7 @@ def main():
 
         # 4. Same input, same bytes.
         dig2 = os.path.join(tmp, "digraph2.svg")
-        run(binary, "report", "--scenario", scenario, "--figure", "digraph", "--svg", dig2)
+        run(binary, "report", "--scenario", scenario, "--figure", "digraph", "-o", dig2)
         check(open(dig, "rb").read() == open(dig2, "rb").read(), "digraph SVG is byte-identical on a second run")
 
         # 5. The HTML report, with the several-piece sections asked for on a short board.
@@ -172,7 +172,7 @@ def main():
         p = run(binary, "report", "1d6", "2x6", "--length", "30", "-o", bad, expect=2)
         check(len(p.stderr.strip().splitlines()) == 1, f"one error line: {p.stderr!r}")
         check(not os.path.exists(bad), "no partial report on bad input")
-        p = run(binary, "report", "1d6", "--length", "30", "--figure", "pie", "--svg", bad, expect=2)
+        p = run(binary, "report", "1d6", "--length", "30", "--figure", "pie", "-o", bad, expect=2)
         check("pie" in p.stderr and not os.path.exists(bad), "unknown figure refused, nothing written")
     if failures:
         print(f"{len(failures)} check(s) failed")
