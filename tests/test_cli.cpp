@@ -411,6 +411,7 @@ std::vector<std::vector<std::string>> every_command(const std::string& certifica
             {"choose", "1d6", "2d6", "--length", "10"},
             {"balance", "1d6", "2d6", "--length", "10", "--lengths", "10..12"},
             {"tournament", "1d6", "2d6", "3d6", "--length", "10"},
+            {"search", "1d3", "2d2", "--length", "6"},
             {"sweep", "1d6", "2d6", "--lengths", "10..12"},
             {"hunt", "1..3d6", "--lengths", "10..12"},
             {"certify", "winner", "1d6", "2d6", "--length", "10"},
@@ -608,4 +609,23 @@ TEST_CASE("cli: --jump takes one value per flag, or a comma list", "[cli]") {
     // The same for the rule and order lists of sweep.
     Run s = run({"sweep", "--overshoot", "stay", "1d6", "2d6", "--lengths", "10..12", "--json"});
     CHECK(s.status == 0);
+}
+
+TEST_CASE("cli: search refuses bad input in one line and writes nothing half", "[cli]") {
+    expect_one_line_error({"search", "1d6", "2d6", "3d6", "--length", "20", "--cycle", "1d6 > 4d6 > 3d6"}, "4d6");
+    expect_one_line_error({"search", "1d6", "2d6", "3d6", "--length", "20", "--target", "cycle"}, "--cycle");
+    expect_one_line_error({"search", "1d6", "2d6", "3d6", "--length", "20", "--target", "best"}, "target");
+    expect_one_line_error({"search", "1d6", "2d6", "--length", "20", "--from", "5..x"}, "--from");
+    expect_one_line_error({"search", "1d6", "2d6", "--length", "20", "--to", "21"}, "--to");
+    expect_one_line_error({"search", "1d6", "2d6", "--length", "20", "--order", "a-first"}, "seat");
+    const fs::path scen = scratch() / "search-best.toml";
+    Run r = run({"search", "1d3", "2d2", "--length", "8", "--target", "fair", "--json"});
+    REQUIRE(r.status == 0);
+    REQUIRE(run({"search", "1d3", "2d2", "--length", "8", "--target", "fair", "--format", "scenario", "-o", scen.string()})
+                .status == 0);
+    CHECK(r.json()["schema"] == "overshoot.search/1");
+    // The scenario file is the best board: the same board flags.
+    Run t = run({"tournament", "--scenario", scen.string(), "--json"});
+    REQUIRE(t.status == 0);
+    CHECK(t.json()["board"] == r.json()["best"][0]["board"]);
 }

@@ -1,0 +1,267 @@
+#include "render/search.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+
+#include "render/figures.hpp"
+#include "render/race.hpp"
+#include "render/tournament.hpp"
+
+namespace overshoot::render {
+
+namespace {
+
+std::string cycle_name(const std::vector<std::size_t>& cycle, const std::vector<Option>& options) {
+    std::string s;
+    for (std::size_t i : cycle) s += options[i].name + " > ";
+    return s + options[cycle.front()].name;
+}
+
+std::string target_sentence(const SearchSpec& spec) {
+    switch (spec.target) {
+        case SearchTarget::cycle:
+            return fmt::format("make the cycle {} hold, as strongly as possible (score: its smallest margin)",
+                               cycle_name(spec.cycle, spec.options));
+        case SearchTarget::no_winner:
+            return "leave no option that beats every other (score: the smallest, over options, of the largest margin "
+                   "by which another option beats it)";
+        case SearchTarget::top_cycle:
+            return "put every option in the top cycle (score: the largest margin t such that the arcs of margin t or "
+                   "more still join every option to every other)";
+        case SearchTarget::fair:
+            return "make every duel as even as possible (score: minus the largest |margin| of any pair)";
+    }
+    return "";
+}
+
+std::string jump_list(const std::vector<Jump>& js) {
+    if (js.empty()) return "none";
+    std::string s;
+    for (const auto& j : js) s += fmt::format("{}{}:{}", s.empty() ? "" : " ", j.from, j.to);
+    return s;
+}
+
+// A shell word: quoted when it holds anything but plain characters.
+std::string shell_word(const std::string& w) {
+    const bool plain = std::all_of(w.begin(), w.end(), [](char c) {
+        return std::isalnum(static_cast<unsigned char>(c)) || c == '+' || c == '-' || c == '_' || c == '.' || c == ':';
+    });
+    if (plain && !w.empty()) return w;
+    std::string q = "'";
+    for (char c : w) q += c == '\'' ? std::string("'\\''") : std::string(1, c);
+    return q + "'";
+}
+
+std::string arcs_line(const FoundBoard& f, const SearchSpec& spec) {
+    const Tournament& t = f.verified;
+    const std::size_t n = t.size();
+    std::vector<std::string> parts;
+    if (spec.target == SearchTarget::cycle) {
+        for (std::size_t k = 0; k < spec.cycle.size(); ++k) {
+            const std::size_t a = spec.cycle[k], b = spec.cycle[(k + 1) % spec.cycle.size()];
+            parts.push_back(fmt::format("{} {} {} by {}", t.name(a), t.beats[a * n + b] ? ">" : "does not beat", t.name(b),
+                                        points(t.margin[a * n + b])));
+        }
+    } else {
+        for (const auto& arc : t.arcs)
+            parts.push_back(fmt::format("{} > {} by {}", t.name(arc.from), t.name(arc.to), points(arc.margin)));
+        for (const auto& [a, b] : t.undecided) parts.push_back(fmt::format("{} ~ {} undecided", t.name(a), t.name(b)));
+    }
+    std::string s;
+    for (const auto& p : parts) s += (s.empty() ? "" : "; ") + p;
+    return s;
+}
+
+double largest_bound(const Tournament& t) {
+    double b = 0;
+    for (double x : t.matrix.bound) b = std::max(b, x);
+    return b;
+}
+
+std::string verdict(const FoundBoard& f, const SearchSpec& spec) {
+    if (spec.target == SearchTarget::fair) return "";
+    return f.holds ? "holds" : "does not hold";
+}
+
+nlohmann::json found_json(const FoundBoard& f, const SearchSpec& spec) {
+    nlohmann::json j;
+    j["board"] = board_json(f.board, spec.order);
+    nlohmann::json added = nlohmann::json::array();
+    for (const auto& a : f.added) added.push_back({a.from, a.to});
+    j["added_jumps"] = added;
+    j["score"] = f.score;
+    j["holds"] = f.holds;
+    j["bounds_proven"] = f.verified.matrix.bounds_proven;
+    j["largest_error_bound"] = largest_bound(f.verified);
+    nlohmann::json arcs = nlohmann::json::array();
+    for (const auto& a : f.verified.arcs)
+        arcs.push_back({{"from", f.verified.name(a.from)}, {"to", f.verified.name(a.to)}, {"margin", a.margin},
+                        {"error_bound", a.bound}});
+    j["arcs"] = arcs;
+    j["condorcet_winner"] = f.verified.condorcet_winner ? nlohmann::json(f.verified.name(*f.verified.condorcet_winner))
+                                                         : nlohmann::json(nullptr);
+    nlohmann::json top = nlohmann::json::array();
+    for (std::size_t i : f.verified.top_cycle) top.push_back(f.verified.name(i));
+    j["top_cycle"] = top;
+    j["flags"] = board_flags(f.board, spec.order);
+    return j;
+}
+
+}  // namespace
+
+std::string board_flags(const Board& board, Order order) {
+    std::string s = fmt::format("--length {}", board.length);
+    if (board.rule != Overshoot::stay) s += fmt::format(" --overshoot {}", to_string(board.rule));
+    for (const auto& j : board.jumps) s += fmt::format(" --jump {}:{}", j.from, j.to);
+    if (order != Order::simultaneous) s += fmt::format(" --order {}", to_string(order));
+    return s;
+}
+
+std::string scenario_toml(const Board& board, Order order, const std::vector<Option>& options) {
+    auto quoted = [](const std::string& s) {
+        std::string q = "\"";
+        for (char c : s) {
+            if (c == '"' || c == '\\') q += '\\';
+            q += c;
+        }
+        return q + "\"";
+    };
+    std::string s = "[board]\n";
+    s += fmt::format("length = {}\n", board.length);
+    s += fmt::format("overshoot = \"{}\"\n", to_string(board.rule));
+    s += "jumps = [";
+    for (std::size_t i = 0; i < board.jumps.size(); ++i)
+        s += fmt::format("{}[{}, {}]", i ? ", " : "", board.jumps[i].from, board.jumps[i].to);
+    s += "]\n\n[race]\n";
+    s += fmt::format("order = \"{}\"\n\n[options]\n", to_string(order));
+    for (const auto& o : options) s += fmt::format("{} = {}\n", quoted(o.name), quoted(o.spec));
+    return s;
+}
+
+std::string search_text(const SearchResult& r, const SearchSpec& spec) {
+    std::string out = fmt::format("Board search. Target: {}.\n", target_sentence(spec));
+    out += fmt::format("Board changed: {} squares, overshoot {}, {} turns, jumps {}", spec.board.length,
+                       to_string(spec.board.rule), to_string(spec.order), jump_list(spec.board.jumps));
+    if (r.lengths.size() > 1) out += fmt::format("; lengths {}..{} searched", r.lengths.front(), r.lengths.back());
+    out += ".\n";
+    if (r.exhaustive)
+        out += fmt::format("Searched: {} (exhaustive): {} boards raced, {} refused (a loop of jumps).\n",
+                           spec.max_jumps == 0 ? "no added jump" : "every single added jump", r.boards_raced,
+                           r.boards_invalid);
+    else
+        out += fmt::format(
+            "Searched: up to {} added jumps by a seeded beam search (seed {}, beam {}, {} jumps tried per board and "
+            "level, then local moves): {} boards raced, {} refused. This is a search, not a proof that no better "
+            "board exists; single added jumps were tried exhaustively.\n",
+            spec.max_jumps, spec.seed, spec.beam, spec.sample, r.boards_raced, r.boards_invalid);
+    if (!spec.from_squares.empty() || !spec.to_squares.empty())
+        out += fmt::format("Allowed squares: jumps from {} to {}.\n",
+                           spec.from_squares.empty() ? std::string("any") : fmt::format("{}", fmt::join(spec.from_squares, ",")),
+                           spec.to_squares.empty() ? std::string("any") : fmt::format("{}", fmt::join(spec.to_squares, ",")));
+    out += "Every board below was raced again by the duel engine (automatic method, proven bounds).\n\n";
+    if (r.base) {
+        out += fmt::format("Unchanged board ({} squares): score {}{}.\n  {}\n\n", r.base->board.length, points(r.base->score),
+                           verdict(*r.base, spec).empty() ? "" : "; the target " + verdict(*r.base, spec),
+                           arcs_line(*r.base, spec));
+    }
+    out += "Best boards, then runners-up:\n";
+    for (std::size_t i = 0; i < r.best.size(); ++i) {
+        const FoundBoard& f = r.best[i];
+        out += fmt::format("{:2}. added {}: score {}{} (largest error bound {:.1e}{})\n", i + 1, jump_list(f.added),
+                           points(f.score), verdict(f, spec).empty() ? "" : "; the target " + verdict(f, spec),
+                           largest_bound(f.verified), f.verified.matrix.bounds_proven ? "" : ", not proven");
+        out += fmt::format("    {}\n", arcs_line(f, spec));
+        out += fmt::format("    board: {}\n", board_flags(f.board, spec.order));
+    }
+    if (!r.best.empty()) {
+        std::string names;
+        for (const auto& o : spec.options) names += " " + shell_word(o.spec);
+        const FoundBoard& f = r.best.front();
+        out += fmt::format("\nCheck the best board:  overshoot tournament{} {}\n", names, board_flags(f.board, spec.order));
+        if (spec.target == SearchTarget::cycle && f.holds)
+            out += fmt::format("Certify its cycle:     overshoot certify cycle{} {} --output cycle.json\n", names,
+                               board_flags(f.board, spec.order));
+    }
+    return out;
+}
+
+nlohmann::json search_json(const SearchResult& r, const SearchSpec& spec) {
+    nlohmann::json j = document("search", 1);
+    j["target"] = std::string(to_string(spec.target));
+    if (spec.target == SearchTarget::cycle) {
+        nlohmann::json c = nlohmann::json::array();
+        for (std::size_t i : spec.cycle) c.push_back(spec.options[i].name);
+        j["cycle"] = c;
+    }
+    nlohmann::json opts = nlohmann::json::array();
+    for (const auto& o : spec.options) opts.push_back({{"name", o.name}, {"spec", o.spec}});
+    j["options"] = opts;
+    j["board"] = board_json(spec.board, spec.order);
+    j["lengths"] = r.lengths;
+    j["max_added_jumps"] = spec.max_jumps;
+    j["exhaustive"] = r.exhaustive;
+    if (!r.exhaustive) j["beam_search"] = {{"seed", spec.seed}, {"beam", spec.beam}, {"sample", spec.sample}};
+    j["from_squares"] = spec.from_squares;
+    j["to_squares"] = spec.to_squares;
+    j["boards_raced"] = r.boards_raced;
+    j["boards_refused"] = r.boards_invalid;
+    j["unchanged"] = r.base ? found_json(*r.base, spec) : nlohmann::json(nullptr);
+    nlohmann::json best = nlohmann::json::array();
+    for (const auto& f : r.best) best.push_back(found_json(f, spec));
+    j["best"] = best;
+    return j;
+}
+
+svg::Element board_figure(const Board& board, const std::vector<Jump>& added, const std::string& title) {
+    const int per_row = 10;
+    const double cell = 36, margin = 24;
+    const int rows = board.length / per_row + 1;  // squares 0..length
+    const double w = 2 * margin + per_row * cell, h = 2 * margin + rows * cell + 28;
+    // Square s sits in row s / 10 counted from the bottom, snaking left and right.
+    auto centre = [&](int s) {
+        const int row = s / per_row, col = s % per_row;
+        const int x = row % 2 == 0 ? col : per_row - 1 - col;
+        return std::pair<double, double>(margin + (x + 0.5) * cell, margin + (rows - 1 - row + 0.5) * cell);
+    };
+    std::string desc = fmt::format("A board of {} squares; jumps {}.", board.length, jump_list(board.jumps));
+    svg::Element root = svg::document(w, h, title, desc);
+    root.add(svg::rect(0, 0, w, h, paper));
+    for (int s = 0; s <= board.length; ++s) {
+        auto [x, y] = centre(s);
+        svg::Element r = svg::rect(x - cell / 2 + 1, y - cell / 2 + 1, cell - 2, cell - 2,
+                                   s == 0 || s == board.length ? "#e8e4d8" : "#ffffff");
+        r.set("stroke", muted).set("stroke-width", 0.5);
+        root.add(r);
+        svg::Element t = svg::text(x - cell / 2 + 3, y - cell / 2 + 11, std::to_string(s), 9, "start");
+        t.set("fill", muted);
+        root.add(t);
+    }
+    const auto& colours = palette();
+    for (const auto& j : board.jumps) {
+        const bool bold = std::find(added.begin(), added.end(), j) != added.end();
+        auto [x1, y1] = centre(j.from);
+        auto [x2, y2] = centre(j.to);
+        const std::string colour = j.to > j.from ? colours[2] : colours[1];
+        // A gentle curve: the control point pushed sideways from the middle.
+        const double mx = (x1 + x2) / 2 - (y2 - y1) * 0.2, my = (y1 + y2) / 2 + (x2 - x1) * 0.2;
+        svg::Element p("path");
+        p.set("d", fmt::format("M {} {} Q {} {} {} {}", svg::num(x1), svg::num(y1), svg::num(mx), svg::num(my),
+                               svg::num(x2), svg::num(y2)));
+        p.set("fill", "none").set("stroke", colour).set("stroke-width", bold ? 3.5 : 2);
+        if (!bold) p.set("stroke-dasharray", "5 3");
+        p.add(svg::Element("title").content(fmt::format("jump {} -> {}{}", j.from, j.to, bold ? " (added)" : "")));
+        root.add(p);
+        root.add(svg::circle(x2, y2, 4, colour));
+    }
+    svg::Element legend = svg::text(margin, h - 12,
+                                     "jumps: forward and backward in two colours; bold = added by the search, "
+                                     "a dot marks where a jump lands",
+                                     10, "start");
+    legend.set("fill", ink);
+    root.add(legend);
+    return root;
+}
+
+}  // namespace overshoot::render

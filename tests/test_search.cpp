@@ -1,0 +1,162 @@
+// Board search: scores of each target, the cycle parser, exhaustive single
+// jumps against a loop written here, and the beam search's determinism.
+// The Python brute force over every jump is tests/scripts/check_search_brute.py.
+#include <catch2/catch.hpp>
+
+#include <algorithm>
+#include <limits>
+
+#include "core/board.hpp"
+#include "core/error.hpp"
+#include "render/search.hpp"
+#include "search/search.hpp"
+#include "support.hpp"
+#include "tournament/tournament.hpp"
+
+using namespace overshoot;
+using overshoot::testing::opts;
+
+namespace {
+
+// Margins of a 3 x 3 matrix from its upper triangle (antisymmetric).
+std::vector<double> margins3(double ab, double ac, double bc) {
+    return {0, ab, ac, -ab, 0, bc, -ac, -bc, 0};
+}
+
+}  // namespace
+
+TEST_CASE("search: the score of each target", "[search]") {
+    // A > B by 0.1, B > C by 0.2, C > A by 0.05: a cycle of strength 0.05 (its weakest arc).
+    const auto m = margins3(0.1, -0.05, 0.2);
+    CHECK(score_of(SearchTarget::cycle, {0, 1, 2}, 3, m) == Approx(0.05));
+    // The reverse orientation runs every arc backwards: its weakest is -0.2.
+    CHECK(score_of(SearchTarget::cycle, {0, 2, 1}, 3, m) == Approx(-0.2));
+    // Each option is beaten: A by C (0.05), B by A (0.1), C by B (0.2): no winner by 0.05.
+    CHECK(score_of(SearchTarget::no_winner, {}, 3, m) == Approx(0.05));
+    // With three options, strong connectivity needs the whole cycle: its weakest arc.
+    CHECK(score_of(SearchTarget::top_cycle, {}, 3, m) == Approx(0.05));
+    CHECK(score_of(SearchTarget::fair, {}, 3, m) == Approx(-0.2));
+    // A transitive digraph: A beats both, so the no-winner score is negative
+    // (A's best beater wins by -0.1); for strong connectivity C must reach
+    // someone, and its best arc is C -> B at -0.2.
+    const auto t = margins3(0.1, 0.3, 0.2);
+    CHECK(score_of(SearchTarget::no_winner, {}, 3, t) == Approx(-0.1));
+    CHECK(score_of(SearchTarget::top_cycle, {}, 3, t) == Approx(-0.2));
+}
+
+TEST_CASE("search: the target cycle as written", "[search]") {
+    const auto o = opts({"1d6", "2d6", "3d6"});
+    CHECK(parse_cycle("1d6 > 2d6 > 3d6 > 1d6", o) == std::vector<std::size_t>{0, 1, 2});
+    CHECK(parse_cycle("3d6>2d6>1d6", o) == std::vector<std::size_t>{2, 1, 0});
+    CHECK_THROWS_AS(parse_cycle("1d6 > 2d6 > 1d6", o), InputError);    // two options
+    CHECK_THROWS_AS(parse_cycle("1d6 > 4d6 > 3d6", o), InputError);    // unknown name
+    CHECK_THROWS_AS(parse_cycle("1d6 > 2d6 > 2d6 > 3d6", o), InputError);  // repeated
+    CHECK_THROWS_AS(parse_cycle("1d6 >> 2d6 > 3d6", o), InputError);   // empty name
+}
+
+TEST_CASE("search: one added jump is every jump, ranked by the tournament's margins", "[search]") {
+    SearchSpec spec;
+    spec.board = make_board(9, Overshoot::stay, {});
+    spec.options = opts({"1d3", "2d2", "[1,1,4]"});
+    spec.target = SearchTarget::cycle;
+    spec.cycle = {0, 1, 2};
+    spec.keep = 4;
+    spec.threads = 2;
+    const SearchResult r = search_board(spec);
+    CHECK(r.exhaustive);
+    // Every FROM 1..8 with every TO 0..9 but FROM, one board without a change; no loop is possible.
+    CHECK(r.boards_raced == 8 * 9 + 1);
+    CHECK(r.boards_invalid == 0);
+    // The best score by a loop over every jump, each raced with race_matrix here.
+    double best = -std::numeric_limits<double>::infinity();
+    for (int f = 1; f < 9; ++f)
+        for (int t = 0; t <= 9; ++t) {
+            if (t == f) continue;
+            const Board b = make_board(9, Overshoot::stay, {{f, t}});
+            const Tournament tt = analyse(race_matrix(b, Order::simultaneous, spec.options));
+            best = std::max(best, score_of(SearchTarget::cycle, spec.cycle, 3, tt.margin));
+        }
+    REQUIRE(r.best.size() == 4);
+    CHECK(r.best.front().score == Approx(best).margin(1e-12));
+    for (std::size_t i = 1; i < r.best.size(); ++i) CHECK(r.best[i - 1].score >= r.best[i].score);
+    // What is reported holds exactly when every arc of the cycle is an arc of the verified tournament.
+    for (const auto& f : r.best) {
+        const bool all = f.verified.beats[0 * 3 + 1] && f.verified.beats[1 * 3 + 2] && f.verified.beats[2 * 3 + 0];
+        CHECK(f.holds == all);
+        CHECK(f.added.size() <= 1);
+    }
+}
+
+TEST_CASE("search: a beam search is the same for the same seed, whatever the threads", "[search]") {
+    SearchSpec spec;
+    spec.board = make_board(14, Overshoot::bounce, {{5, 9}});
+    spec.options = opts({"1d4", "2d3", "[0,2,5]"});
+    spec.target = SearchTarget::no_winner;
+    spec.max_jumps = 2;
+    spec.beam = 3;
+    spec.sample = 20;
+    spec.keep = 3;
+    spec.seed = 7;
+    spec.threads = 1;
+    const SearchResult a = search_board(spec);
+    spec.threads = 2;
+    const SearchResult b = search_board(spec);
+    CHECK_FALSE(a.exhaustive);
+    CHECK(render::search_json(a, spec).dump() == render::search_json(b, spec).dump());
+    // The board's own jump stays; the search only adds.
+    for (const auto& f : a.best) CHECK(std::find(f.board.jumps.begin(), f.board.jumps.end(), Jump{5, 9}) != f.board.jumps.end());
+    // At least as good as the best single jump: the beam starts from those boards.
+    spec.max_jumps = 1;
+    const SearchResult one = search_board(spec);
+    CHECK(a.best.front().score >= one.best.front().score);
+}
+
+TEST_CASE("search: allowed squares and lengths", "[search]") {
+    SearchSpec spec;
+    spec.board = make_board(12, Overshoot::stay, {});
+    spec.options = opts({"1d3", "2d2"});
+    spec.target = SearchTarget::fair;
+    spec.from_squares = {4, 5};
+    spec.to_squares = {0, 1, 2};
+    spec.length_lo = 11;
+    spec.length_hi = 12;
+    const SearchResult r = search_board(spec);
+    // Two lengths, each unchanged or with one of 2 x 3 jumps.
+    CHECK(r.boards_raced == 2 * (1 + 6));
+    for (const auto& f : r.best) {
+        CHECK((f.board.length == 11 || f.board.length == 12));
+        for (const auto& j : f.added) {
+            CHECK((j.from == 4 || j.from == 5));
+            CHECK(j.to <= 2);
+        }
+    }
+    spec.from_squares = {12};
+    CHECK_THROWS_AS(search_board(spec), InputError);
+}
+
+TEST_CASE("search: refusals", "[search]") {
+    SearchSpec spec;
+    spec.board = make_board(12, Overshoot::stay, {});
+    spec.options = opts({"1d3", "2d2", "1d4"});
+    spec.target = SearchTarget::cycle;
+    CHECK_THROWS_AS(search_board(spec), InputError);  // no cycle named
+    spec.target = SearchTarget::no_winner;
+    spec.order = Order::a_first;
+    CHECK_THROWS_AS(search_board(spec), InputError);  // the matrix would depend on the seat
+    spec.order = Order::coin;
+    spec.max_jumps = 9;
+    CHECK_THROWS_AS(search_board(spec), InputError);
+    CHECK_THROWS_AS(parse_search_target("fairest"), InputError);
+}
+
+TEST_CASE("search: the scenario file and the drawing", "[search]") {
+    const Board b = make_board(23, Overshoot::bounce, {{3, 11}, {20, 2}});
+    const std::string toml = render::scenario_toml(b, Order::coin, opts({"1d6", "[0,3,3,5]"}));
+    CHECK(toml.find("length = 23") != std::string::npos);
+    CHECK(toml.find("jumps = [[3, 11], [20, 2]]") != std::string::npos);
+    CHECK(toml.find("\"[0,3,3,5]\" = \"[0,3,3,5]\"") != std::string::npos);
+    CHECK(render::board_flags(b, Order::coin) == "--length 23 --overshoot bounce --jump 3:11 --jump 20:2 --order coin");
+    const std::string svg = render::svg::file(render::board_figure(b, {{20, 2}}, "t"));
+    CHECK(svg.find("jump 20 -&gt; 2 (added)") != std::string::npos);
+    CHECK(svg.find("jump 3 -&gt; 11</title>") != std::string::npos);
+}
