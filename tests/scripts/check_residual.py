@@ -14,6 +14,8 @@ command line, against Python's fractions module.
    (the exact values lie in the recorded intervals, checked in 1).
 3. A hand-made certificate of a false claim (the loser named the winner,
    with a correct residual proof of the swapped duel) is refused by both.
+4. The example docs/examples/cycle-bounce-100.json holds for both and is
+   written again byte for byte (certificates are deterministic).
 
 Source of the exact values: Python `fractions` (standard library).
 
@@ -146,6 +148,19 @@ check("a false claim with a false verdict is refused by check and referee", c ==
 e["verdict"] = "b beats a"
 c, r, err = both_checkers(save("false2.json", bad))
 check("a false claim with the true verdict is refused by check and referee", c == 1 and r == 1, err)
+
+# 4. The example of docs/examples: both checkers accept it, and certify writes the same bytes.
+example = os.path.join(source, "docs", "examples", "cycle-bounce-100.json")
+c, r, err = both_checkers(example)
+check("docs/examples/cycle-bounce-100.json: check and referee accept", c == 0 and r == 0, err)
+again = os.path.join(tmp, "again.json")
+args = [binary, "certify", "cycle", "[2,6,6,8]", "1d6", "[4,9,12]", "--length", "100", "--overshoot", "bounce",
+        "-o", again]
+for j in ("9:11", "12:46", "23:94", "29:77", "34:77", "87:39"):
+    args += ["--jump", j]
+p = subprocess.run(args, capture_output=True, text=True)
+with open(example, "rb") as f, open(again, "rb") if p.returncode == 0 else open(os.devnull, "rb") as g:
+    check("docs/examples/cycle-bounce-100.json is written again byte for byte", f.read() == g.read(), p.stderr)
 
 if failures:
     print(f"{len(failures)} failure(s)")
