@@ -9,6 +9,7 @@
 #include <random>
 
 #include "certify/certificate.hpp"
+#include "certify/lifting.hpp"
 #include "certify/residual.hpp"
 #include "chain/chain.hpp"
 #include "race/exact.hpp"
@@ -229,6 +230,8 @@ TEST_CASE("a false claim is not certified, and a hand-made certificate of it is 
     bad.options = {o[1], o[0]};
     bad.statement = claim_statement(bad.claim, board, bad.order);
     CertDuel d = good.duels[0];
+    d.exact_method.clear();  // a residual proof alone (exact lifting also fits this board)
+    for (CertValue* v : {&d.p_a_wins, &d.p_b_wins, &d.p_tie, &d.p_neither, &d.margin}) v->exact.reset();
     std::swap(d.a, d.b);
     std::swap(d.p_a_wins, d.p_b_wins);
     d.margin.lo = -good.duels[0].margin.hi;
@@ -245,4 +248,26 @@ TEST_CASE("a false claim is not certified, and a hand-made certificate of it is 
         CHECK_FALSE(r.holds);
         CHECK(r.failure.find(v == Verdict::a_beats_b ? "verdict" : "claim") != std::string::npos);
     }
+}
+
+TEST_CASE("exact lifting gives the exact elimination fractions, proven by substitution", "[residual]") {
+    // Source: exact elimination (Bareiss) of the same duels, an independent exact solve.
+    const std::vector<Board> boards = {make_board(10, Overshoot::bounce, {{8, 2}}),
+                                       make_board(12, Overshoot::stay, {{9, 1}, {4, 7}})};
+    const auto o = opts({"2d6", "[0,1,5]", "1d4"});
+    for (const Board& board : boards)
+        for (Order order : {Order::simultaneous, Order::a_first, Order::b_first, Order::coin})
+            for (std::size_t i = 0; i < o.size(); ++i)
+                for (std::size_t j = 0; j < o.size(); ++j) {
+                    if (i == j) continue;
+                    const Chain a = build_chain(board, o[i]), b = build_chain(board, o[j]);
+                    const LiftedDuel l = lifted_duel(a, b, order);
+                    INFO(describe(board, order) << ": " << o[i].name << " vs " << o[j].name << ": " << l.refusal);
+                    REQUIRE(l.duel);
+                    const ExactDuel e = exact_duel(a, b, order);
+                    CHECK(l.duel->p_a_wins == e.p_a_wins);
+                    CHECK(l.duel->p_b_wins == e.p_b_wins);
+                    CHECK(l.duel->p_tie == e.p_tie);
+                    CHECK(l.duel->p_neither == e.p_neither);
+                }
 }

@@ -6,6 +6,7 @@
 #include <set>
 
 #include "certify/certificate.hpp"
+#include "certify/lifting.hpp"
 #include "core/parallel.hpp"
 #include "chain/chain.hpp"
 #include "core/error.hpp"
@@ -136,7 +137,9 @@ CertValue proven(const mpq_class& centre, const mpq_class& radius, bool probabil
     return v;
 }
 
-void residual_values(CertDuel& d, ResidualWriting& w) {
+// A residual duel: proven intervals always; the exact fractions of lifting
+// where they fit, otherwise the reason in the interval method.
+void residual_values(CertDuel& d, ResidualWriting& w, const std::optional<ExactDuel>& e, const std::string& why) {
     const ResidualBounds& b = w.bounds;
     CertValue* v[5] = {&d.p_a_wins, &d.p_b_wins, &d.p_tie, &d.p_neither, &d.margin};
     for (int i = 0; i < 5; ++i) *v[i] = proven(b.centre[i], b.radius[i], i < 4);
@@ -144,6 +147,20 @@ void residual_values(CertDuel& d, ResidualWriting& w) {
     const mpq_class lo = b.centre[4] - b.radius[4], hi = b.centre[4] + b.radius[4];
     d.verdict = lo > 0 ? Verdict::a_beats_b : hi < 0 ? Verdict::b_beats_a : Verdict::undecided;
     d.residual = std::move(w.proof);
+    if (!e) {
+        d.interval_method += " (no exact fractions: " + why + ")";
+        return;
+    }
+    d.exact_method = e->method;
+    const mpq_class x[5] = {e->p_a_wins, e->p_b_wins, e->p_tie, e->p_neither, e->margin()};
+    for (int i = 0; i < 5; ++i) {
+        if (x[i] < b.centre[i] - b.radius[i] || x[i] > b.centre[i] + b.radius[i])
+            throw InternalError("certify: an exact fraction lies outside its residual interval");
+        v[i]->exact = x[i];
+        v[i]->decimal = decimal_string(x[i], 6);
+    }
+    const int s = sgn(x[4]);
+    d.verdict = s > 0 ? Verdict::a_beats_b : s < 0 ? Verdict::b_beats_a : Verdict::undecided;
 }
 
 }  // namespace
@@ -190,7 +207,12 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
         const Chain& cb = chains.at({n.length, by_name.at(n.b)});
         if (t < m) {
             if (refusal[t].empty()) exact[t] = exact_duel(ca, cb, order);
-            else if (refusal[t] == "residual") proof[t] = write_residual(ca, cb, order);
+            else if (refusal[t] == "residual") {
+                proof[t] = write_residual(ca, cb, order);
+                LiftedDuel l = lifted_duel(ca, cb, order);
+                exact[t] = std::move(l.duel);
+                refusal[t] = l.refusal;
+            }
         } else if (refusal[t - m] != "residual") {
             DuelSettings s;
             s.want_median = false;
@@ -204,7 +226,7 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
         d.b = need[i].b;
         d.length = need[i].length;
         if (proof[i]) {
-            residual_values(d, *proof[i]);
+            residual_values(d, *proof[i], exact[i], refusal[i]);
             cert.duels.push_back(std::move(d));
             continue;
         }

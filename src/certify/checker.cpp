@@ -54,7 +54,6 @@ std::vector<const CertValue*> values(const CertDuel& d) {
 Verdict check_recorded(const std::string& where, const CertDuel& d, const std::string& failure,
                        const ResidualBounds& b) {
     if (!failure.empty()) fail(fmt::format("{}: residual certificate: {}", where, failure));
-    if (!d.exact_method.empty()) fail(fmt::format("{}: a residual duel carries no exact fractions", where));
     auto v = values(d);
     for (int i = 0; i < 5; ++i) {
         mpq_class lo = b.centre[i] - b.radius[i], hi = b.centre[i] + b.radius[i];
@@ -66,12 +65,18 @@ Verdict check_recorded(const std::string& where, const CertDuel& d, const std::s
             fail(fmt::format("{}: {}: the recorded interval [{:.17g}, {:.17g}] does not contain the proven one [{:.17g}, "
                              "{:.17g}]",
                              where, value_names[i], v[i]->lo, v[i]->hi, lo.get_d(), hi.get_d()));
-        if (v[i]->decimal != decimal_string(b.centre[i], 6))
+        if (v[i]->exact && (*v[i]->exact < b.centre[i] - b.radius[i] || *v[i]->exact > b.centre[i] + b.radius[i]))
+            fail(fmt::format("{}: {}: the fraction lies outside the proven interval", where, value_names[i]));
+        if (!v[i]->exact && v[i]->decimal != decimal_string(b.centre[i], 6))
             fail(fmt::format("{}: {}: the decimal {} is not the proven centre rounded to 6 places", where,
                              value_names[i], v[i]->decimal));
     }
     const mpq_class lo = b.centre[4] - b.radius[4], hi = b.centre[4] + b.radius[4];
-    const Verdict got = lo > 0 ? Verdict::a_beats_b : hi < 0 ? Verdict::b_beats_a : Verdict::undecided;
+    Verdict got = lo > 0 ? Verdict::a_beats_b : hi < 0 ? Verdict::b_beats_a : Verdict::undecided;
+    if (d.margin.exact) {  // the fractions are confirmed modulo primes by the caller
+        const int s = sgn(*d.margin.exact);
+        got = s > 0 ? Verdict::a_beats_b : s < 0 ? Verdict::b_beats_a : Verdict::undecided;
+    }
     if (d.verdict != got)
         fail(fmt::format("{}: verdict '{}' is wrong: the proven margin gives '{}'", where, to_string(d.verdict),
                          to_string(got)));
@@ -172,56 +177,61 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
                 approx[t % m] = duel(ca, cb, c.order, s);
             }
         });
+        // Each fraction against the one-round equations modulo the primes.
+        auto confirm_fractions = [&](std::size_t k) -> std::string {
+            const CertDuel& d = c.duels[k];
+            auto v = values(d);
+            int confirmed = 0;
+            for (std::size_t j = 0; j < np; ++j) {
+                if (!mod[k * np + j]) continue;  // p divides a denominator: skip this prime
+                const u64 p = rep.primes[j];
+                const auto& x = *mod[k * np + j];
+                const u64 neither = (3 * p + 1 - x[0] - x[1] - x[2]) % p;
+                const u64 margin = (x[0] + p - x[1]) % p;
+                const u64 want[5] = {x[0], x[1], x[2], neither, margin};
+                bool used = false;
+                for (int i = 0; i < 5; ++i) {
+                    const mpq_class& q = *v[i]->exact;
+                    const u64 den = residue(q.get_den(), p);
+                    if (den == 0) continue;
+                    used = true;
+                    const u64 lhs = residue(q.get_num(), p);
+                    const u64 rhs = static_cast<u64>(static_cast<u128>(want[i]) * den % p);
+                    if (lhs != rhs)
+                        fail(fmt::format("{}: {}: the fraction is wrong (it differs from the one-round product-chain "
+                                         "value modulo the prime {})",
+                                         where(d), value_names[i], p));
+                }
+                if (used) ++confirmed;
+            }
+            if (confirmed == 0) fail(fmt::format("{}: no prime could confirm the fractions", where(d)));
+            // Identities (also implied by the residues; named here for a clear message).
+            if (*d.p_a_wins.exact + *d.p_b_wins.exact + *d.p_tie.exact + *d.p_neither.exact != 1)
+                fail(fmt::format("{}: the four outcomes do not add up to 1", where(d)));
+            if (*d.p_a_wins.exact - *d.p_b_wins.exact != *d.margin.exact)
+                fail(fmt::format("{}: margin is not P(A wins) - P(B wins)", where(d)));
+            return fmt::format("5 fractions confirmed modulo {} primes; ", confirmed);
+        };
         std::vector<Verdict> verdict(m);
         std::vector<bool> exact_only(m, false);
         for (std::size_t k = 0; k < m; ++k) {
             const CertDuel& d = c.duels[k];
             if (d.residual) {
+                const std::string confirmed = d.exact_method.empty() ? "" : confirm_fractions(k);
                 verdict[k] = check_recorded(where(d), d, residual_failure[k], residual_bounds[k]);
                 const ResidualBounds& b = residual_bounds[k];
                 const mpq_class lo = b.centre[4] - b.radius[4], hi = b.centre[4] + b.radius[4], width = 2 * b.radius[4];
                 rep.passed.push_back(CheckItem{
-                    where(d), fmt::format("residual certificate verified in exact arithmetic; margin {} in [{:.17g}, "
+                    where(d), fmt::format("{}residual certificate verified in exact arithmetic; margin {} in [{:.17g}, "
                                           "{:.17g}] (proven width {:.3g})",
-                                          d.margin.decimal, lo.get_d(), hi.get_d(), width.get_d())});
+                                          confirmed, d.margin.decimal, lo.get_d(), hi.get_d(), width.get_d())});
                 continue;
             }
             const DuelResult& r = approx[k];
             if (!r.bound_proven) fail(fmt::format("{}: the floating-point engine gave no proven bound", where(d)));
             auto v = values(d);
             std::string detail;
-            if (!d.exact_method.empty()) {
-                int confirmed = 0;
-                for (std::size_t j = 0; j < np; ++j) {
-                    if (!mod[k * np + j]) continue;  // p divides a denominator: skip this prime
-                    const u64 p = rep.primes[j];
-                    const auto& x = *mod[k * np + j];
-                    const u64 neither = (3 * p + 1 - x[0] - x[1] - x[2]) % p;
-                    const u64 margin = (x[0] + p - x[1]) % p;
-                    const u64 want[5] = {x[0], x[1], x[2], neither, margin};
-                    bool used = false;
-                    for (int i = 0; i < 5; ++i) {
-                        const mpq_class& q = *v[i]->exact;
-                        const u64 den = residue(q.get_den(), p);
-                        if (den == 0) continue;
-                        used = true;
-                        const u64 lhs = residue(q.get_num(), p);
-                        const u64 rhs = static_cast<u64>(static_cast<u128>(want[i]) * den % p);
-                        if (lhs != rhs)
-                            fail(fmt::format("{}: {}: the fraction is wrong (it differs from the one-round product-chain "
-                                             "value modulo the prime {})",
-                                             where(d), value_names[i], p));
-                    }
-                    if (used) ++confirmed;
-                }
-                if (confirmed == 0) fail(fmt::format("{}: no prime could confirm the fractions", where(d)));
-                // Identities (also implied by the residues; named here for a clear message).
-                if (*d.p_a_wins.exact + *d.p_b_wins.exact + *d.p_tie.exact + *d.p_neither.exact != 1)
-                    fail(fmt::format("{}: the four outcomes do not add up to 1", where(d)));
-                if (*d.p_a_wins.exact - *d.p_b_wins.exact != *d.margin.exact)
-                    fail(fmt::format("{}: margin is not P(A wins) - P(B wins)", where(d)));
-                detail = fmt::format("5 fractions confirmed modulo {} primes; ", confirmed);
-            }
+            if (!d.exact_method.empty()) detail = confirm_fractions(k);
             // Proven intervals of the checker's own float run.
             const long double bound = r.bound;
             const long double own[5] = {r.p_a_wins, r.p_b_wins, r.p_tie, r.p_neither, r.p_a_wins - r.p_b_wins};

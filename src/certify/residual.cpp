@@ -63,17 +63,6 @@ int bits(u128 v) {
     return n;
 }
 
-// One part's product chain among the live states reachable from the start,
-// rows in CSR form with exact weights over `full` = DA * DB.
-struct Product {
-    u128 full = 1;
-    std::vector<std::pair<int, int>> states;
-    std::vector<std::int64_t> row;  // size states + 1
-    std::vector<int> col;
-    std::vector<u128> w;
-    std::vector<u128> out[3];  // weight of A wins, B wins, tie this round
-};
-
 // Calls f(kind, da, db, weight) for every outcome of one round from (a, b):
 // kind 0/1/2 = A wins / B wins / tie (da, db unused), 3 = the race goes on.
 template <class Visit>
@@ -110,12 +99,14 @@ void round_from(const Chain& A, const Chain& B, Mover first, int a, int b, Visit
     }
 }
 
-Product build_product(const Chain& A, const Chain& B, Mover first) {
+}  // namespace
+
+ProductChain build_product_chain(const Chain& A, const Chain& B, Mover first) {
     const int n = A.length;
     const std::size_t cells = static_cast<std::size_t>(n) * n;
     const std::uint64_t rowlen = static_cast<std::uint64_t>(A.max_move + 1) * (B.max_move + 1);
     limits::check_memory(cells * (8 + rowlen * 48), "the residual certificate of this duel");
-    Product p;
+    ProductChain p;
     p.full = static_cast<u128>(A.denominator) * B.denominator;
     auto live = [&](int a, int b) { return !(A.stuck[a] && B.stuck[b]); };
     // Live states reachable from (0, 0) through live states (dead ones only lead to dead ones).
@@ -159,8 +150,10 @@ Product build_product(const Chain& A, const Chain& B, Mover first) {
     return p;
 }
 
+namespace {
+
 // full * x(s) - sum_t w(s,t) x(t) - scale * out(s): the residual times full * scale.
-std::vector<i128> residual(const Product& p, const std::vector<i128>& x, const std::vector<u128>* out, i128 scale) {
+std::vector<i128> residual(const ProductChain& p, const std::vector<i128>& x, const std::vector<u128>* out, i128 scale) {
     std::vector<i128> r(x.size());
     for (std::size_t i = 0; i < x.size(); ++i) {
         i128 acc = static_cast<i128>(p.full) * x[i];
@@ -191,7 +184,7 @@ constexpr int kRoundsDigits = 3;
 PartValues write_part(const Chain& A, const Chain& B, Mover first) {
     PartValues out;
     out.part.first = first;
-    Product p = build_product(A, B, first);
+    ProductChain p = build_product_chain(A, B, first);
     out.full = p.full;
     out.part.states = p.states;
     const std::size_t m = p.states.size();

@@ -10,6 +10,7 @@
 // its code and works in GMP integers and rationals only.
 #include <gmpxx.h>
 
+#include <cstdint>
 #include <string>
 #include <utility>
 #include <vector>
@@ -48,6 +49,20 @@ struct ResidualBounds {
     mpq_class centre[5];
     mpq_class radius[5];
 };
+
+// The writer's product chain of one part, among the live states reachable
+// from the start (increasing), rows in CSR form with exact weights over
+// `full` = DA * DB. Shared by the residual writer and exact lifting.
+__extension__ typedef unsigned __int128 uint128;
+struct ProductChain {
+    uint128 full = 1;
+    std::vector<std::pair<int, int>> states;
+    std::vector<std::int64_t> row;  // size states + 1
+    std::vector<int> col;
+    std::vector<uint128> w;
+    std::vector<uint128> out[3];  // weight of A wins, B wins, tie this round
+};
+ProductChain build_product_chain(const Chain& a, const Chain& b, Mover first);
 
 // The writer: values refined until the rounding of the last digit dominates.
 // Throws LimitError when the product chain exceeds the memory cap.

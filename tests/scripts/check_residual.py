@@ -16,6 +16,8 @@ command line, against Python's fractions module.
    with a correct residual proof of the swapped duel) is refused by both.
 4. The example docs/examples/cycle-bounce-100.json holds for both and is
    written again byte for byte (certificates are deterministic).
+5. Exact lifting (p-adic, beyond the 12 squares of exact elimination) gives
+   the fractions of the Python fractions solve on a 13-square board.
 
 Source of the exact values: Python `fractions` (standard library).
 
@@ -142,12 +144,29 @@ e["a"], e["b"] = y, x
 e["p_a_wins"], e["p_b_wins"] = d["p_b_wins"], d["p_a_wins"]
 e["margin"] = {"decimal": "-" + d["margin"]["decimal"], "interval": [-d["margin"]["interval"][1], -d["margin"]["interval"][0]]}
 e["residual"]["parts"] = [swapped]
+e["exact_method"] = None  # a residual proof alone (exact lifting also fits this board)
+for k in ("p_a_wins", "p_b_wins", "p_tie", "p_neither", "margin"):
+    e[k].pop("exact", None)
 e["verdict"] = "a beats b"
 c, r, err = both_checkers(save("false.json", bad))
 check("a false claim with a false verdict is refused by check and referee", c == 1 and r == 1, err)
 e["verdict"] = "b beats a"
 c, r, err = both_checkers(save("false2.json", bad))
 check("a false claim with the true verdict is refused by check and referee", c == 1 and r == 1, err)
+
+# 5. Exact lifting beyond exact elimination (13 squares > 12): the certificate's fractions are the
+#    Python fractions solve's, digit for digit.
+doc = certify(13, "bounce", [(9, 2)], "simultaneous", "1d6", "[0,1,5]")
+d = doc["duels"][0] if doc else {}
+if doc and d.get("exact_method") == "exact lifting":
+    moves = {o["name"]: [tuple(m) for m in o["moves"]] for o in doc["options"]}
+    exact = referee.duel(13, "bounce", [(9, 2)], moves[d["a"]], moves[d["b"]], "simultaneous")
+    same = all(referee.fraction(d[k]["exact"], k) == exact[k] for k in exact)
+    check("exact lifting on 13 squares equals the Python fractions solve", same)
+    c, r, err = both_checkers(save("lift.json", doc))
+    check("exact lifting on 13 squares: check and referee accept", c == 0 and r == 0, err)
+else:
+    check("exact lifting on 13 squares", False, "no certificate with exact lifting was written")
 
 # 4. The example of docs/examples: both checkers accept it, and certify writes the same bytes.
 example = os.path.join(source, "docs", "examples", "cycle-bounce-100.json")
