@@ -52,6 +52,18 @@ Claim winner(const std::vector<Option>& o) {
 
 std::string write(const Certificate& c) { return render::certificate_json(c).dump(1); }
 
+// Calls f(board, order, A, B, what) for every board, turn order and ordered pair of distinct options.
+template <class F>
+void each_duel(const std::vector<Board>& boards, const std::vector<Option>& o, F&& f) {
+    for (const Board& board : boards)
+        for (Order order : {Order::simultaneous, Order::a_first, Order::b_first, Order::coin})
+            for (std::size_t i = 0; i < o.size(); ++i)
+                for (std::size_t j = 0; j < o.size(); ++j)
+                    if (i != j)
+                        f(order, build_chain(board, o[i]), build_chain(board, o[j]),
+                          describe(board, order) + ": " + o[i].name + " vs " + o[j].name);
+}
+
 CheckReport recheck(const std::string& text) { return check_certificate(parse_certificate(text, "test"), text, 2); }
 
 }  // namespace
@@ -65,25 +77,20 @@ TEST_CASE("residual intervals enclose the exact elimination fractions on small g
                                        make_board(11, Overshoot::bounce, {})};
     const auto o = opts({"2d6", "[0,1,5]", "{2:3,5:1}"});
     int checked = 0;
-    for (const Board& board : boards)
-        for (Order order : {Order::simultaneous, Order::a_first, Order::b_first, Order::coin})
-            for (std::size_t i = 0; i < o.size(); ++i)
-                for (std::size_t j = 0; j < o.size(); ++j) {
-                    if (i == j) continue;
-                    const Chain a = build_chain(board, o[i]), b = build_chain(board, o[j]);
-                    const ResidualWriting w = write_residual(a, b, order);
-                    ResidualBounds checked_bounds;
-                    const std::string why = check_residual(w.proof, a, b, order, checked_bounds);
-                    INFO(describe(board, order) << ": " << o[i].name << " vs " << o[j].name << ": " << why);
-                    REQUIRE(why.empty());
-                    for (int k = 0; k < 5; ++k) {
-                        CHECK(checked_bounds.centre[k] == w.bounds.centre[k]);
-                        CHECK(checked_bounds.radius[k] == w.bounds.radius[k]);
-                        CHECK(2 * checked_bounds.radius[k] <= kWidth);
-                    }
-                    require_inside(checked_bounds, exact_duel(a, b, order));
-                    ++checked;
-                }
+    each_duel(boards, o, [&](Order order, const Chain& a, const Chain& b, const std::string& what) {
+        const ResidualWriting w = write_residual(a, b, order);
+        ResidualBounds checked_bounds;
+        const std::string why = check_residual(w.proof, a, b, order, checked_bounds);
+        INFO(what << ": " << why);
+        REQUIRE(why.empty());
+        for (int k = 0; k < 5; ++k) {
+            CHECK(checked_bounds.centre[k] == w.bounds.centre[k]);
+            CHECK(checked_bounds.radius[k] == w.bounds.radius[k]);
+            CHECK(2 * checked_bounds.radius[k] <= kWidth);
+        }
+        require_inside(checked_bounds, exact_duel(a, b, order));
+        ++checked;
+    });
     CHECK(checked == 4 * 4 * 6);
 }
 
@@ -255,19 +262,14 @@ TEST_CASE("exact lifting gives the exact elimination fractions, proven by substi
     const std::vector<Board> boards = {make_board(10, Overshoot::bounce, {{8, 2}}),
                                        make_board(12, Overshoot::stay, {{9, 1}, {4, 7}})};
     const auto o = opts({"2d6", "[0,1,5]", "1d4"});
-    for (const Board& board : boards)
-        for (Order order : {Order::simultaneous, Order::a_first, Order::b_first, Order::coin})
-            for (std::size_t i = 0; i < o.size(); ++i)
-                for (std::size_t j = 0; j < o.size(); ++j) {
-                    if (i == j) continue;
-                    const Chain a = build_chain(board, o[i]), b = build_chain(board, o[j]);
-                    const LiftedDuel l = lifted_duel(a, b, order);
-                    INFO(describe(board, order) << ": " << o[i].name << " vs " << o[j].name << ": " << l.refusal);
-                    REQUIRE(l.duel);
-                    const ExactDuel e = exact_duel(a, b, order);
-                    CHECK(l.duel->p_a_wins == e.p_a_wins);
-                    CHECK(l.duel->p_b_wins == e.p_b_wins);
-                    CHECK(l.duel->p_tie == e.p_tie);
-                    CHECK(l.duel->p_neither == e.p_neither);
-                }
+    each_duel(boards, o, [&](Order order, const Chain& a, const Chain& b, const std::string& what) {
+        const LiftedDuel l = lifted_duel(a, b, order);
+        INFO(what << ": " << l.refusal);
+        REQUIRE(l.duel);
+        const ExactDuel e = exact_duel(a, b, order);
+        CHECK(l.duel->p_a_wins == e.p_a_wins);
+        CHECK(l.duel->p_b_wins == e.p_b_wins);
+        CHECK(l.duel->p_tie == e.p_tie);
+        CHECK(l.duel->p_neither == e.p_neither);
+    });
 }
