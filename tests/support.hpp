@@ -1,5 +1,5 @@
 #pragma once
-// Helpers shared by the test files: options from specs, and running the
+// Helpers shared by the test files: options and chains from specs, and running the
 // overshoot binary as a whole process (exit status, stdout, stderr).
 #include <catch2/catch.hpp>
 #include <sys/wait.h>
@@ -13,6 +13,8 @@
 #include <string>
 #include <vector>
 
+#include "chain/chain.hpp"
+#include "core/board.hpp"
 #include "core/option.hpp"
 
 namespace overshoot::testing {
@@ -22,6 +24,17 @@ inline std::vector<Option> opts(std::initializer_list<const char*> specs) {
     for (const char* s : specs) out.push_back(parse_option(s));
     return out;
 }
+
+// Chains of several options on one board, and pointers to them (races).
+struct Pieces {
+    Board board;
+    std::vector<Chain> chains;
+    std::vector<const Chain*> ptr;
+    Pieces(Board b, const std::vector<std::string>& specs) : board(std::move(b)) {
+        for (const auto& s : specs) chains.push_back(build_chain(board, parse_option(s)));
+        for (const auto& c : chains) ptr.push_back(&c);
+    }
+};
 
 inline std::string slurp(const std::filesystem::path& p) {
     std::ifstream in(p, std::ios::binary);

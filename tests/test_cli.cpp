@@ -347,7 +347,7 @@ TEST_CASE("cli: a huge --memory-limit is refused with its limit, on every comman
     }
 }
 TEST_CASE("cli: a duel nobody can finish prints no NaN", "[cli]") {
-    // Fails today: the text prints "mean nan rounds" (src/render/race.cpp);
+    // Fails today: the text prints "mean nan rounds" (src/render/duel.cpp);
     // the JSON already gives null.
     Run r = run({"duel", "0", "0", "--length", "5"});
     REQUIRE(r.status == 0);

@@ -187,12 +187,12 @@ TEST_CASE("malformed spec: other errors name the column", "[core]") {
 
 TEST_CASE("board: jumps are followed in chains and may finish", "[core]") {
     Board b = make_board(20, Overshoot::stay, {{3, 11}, {11, 15}, {17, 2}, {19, 20}});
-    CHECK(b.resolve[3] == 15);   // 3 -> 11 -> 15
-    CHECK(b.resolve[11] == 15);
-    CHECK(b.resolve[17] == 2);
-    CHECK(b.resolve[19] == 20);  // a jump onto the finish finishes
-    CHECK(b.resolve[5] == 5);
-    CHECK(b.resolve[0] == 0);
+    CHECK(b.after_jumps[3] == 15);   // 3 -> 11 -> 15
+    CHECK(b.after_jumps[11] == 15);
+    CHECK(b.after_jumps[17] == 2);
+    CHECK(b.after_jumps[19] == 20);  // a jump onto the finish finishes
+    CHECK(b.after_jumps[5] == 5);
+    CHECK(b.after_jumps[0] == 0);
     CHECK_FALSE(b.forward_only());  // 17 -> 2 moves backward
     CHECK(make_board(20, Overshoot::stay, {{3, 11}}).forward_only());
     CHECK(make_board(20, Overshoot::pass, {}).forward_only());

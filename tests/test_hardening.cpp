@@ -25,7 +25,7 @@
 #include "core/scenario.hpp"
 #include "core/selfcheck.hpp"
 #include "race/duel.hpp"
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 #include "support.hpp"
 #include "tournament/matrix_csv.hpp"
 

@@ -9,8 +9,9 @@
 #include "chain/profile.hpp"
 #include "core/option.hpp"
 #include "race/duel.hpp"
+#include "core/fraction.hpp"
 #include "race/exact.hpp"
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/tournament.hpp"
 

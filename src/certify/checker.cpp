@@ -13,6 +13,7 @@
 #include "core/error.hpp"
 #include "core/limits.hpp"
 #include "race/duel.hpp"
+#include "core/fraction.hpp"
 #include "race/exact.hpp"
 #include "race/pairs.hpp"
 

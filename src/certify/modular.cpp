@@ -33,7 +33,7 @@ u64 inverse(u64 x, u64 p) {  // extended Euclid; x != 0 mod p
 }
 
 // Sums of up to 32 products below p^2 < 2^122 fit 128 bits; reduce before more.
-struct Acc {
+struct ModularSum {
     u128 v = 0;
     int n = 0;
     void add(u64 x, u64 y, u64 p) {
@@ -62,7 +62,7 @@ std::optional<std::array<u64, 3>> forward(const Chain& A, const Chain& B, bool a
             const u128 q_true = static_cast<u128>(A.denominator) * B.denominator -
                                 static_cast<u128>(A.stay_weight[a]) * B.stay_weight[b];
             if (q_true == 0) continue;  // neither piece ever moves: all zero
-            Acc acc[3];
+            ModularSum acc[3];
             for (auto ka = A.row_start[a]; ka < A.row_start[a + 1]; ++ka) {
                 const int da = A.dest[ka];
                 if (da == n) {
@@ -73,7 +73,7 @@ std::optional<std::array<u64, 3>> forward(const Chain& A, const Chain& B, bool a
                     }
                     continue;
                 }
-                Acc inner[3];
+                ModularSum inner[3];
                 for (auto kb = B.row_start[b]; kb < B.row_start[b + 1]; ++kb) {
                     const int db = B.dest[kb];
                     if (db == n) {

@@ -9,7 +9,7 @@
 #include "certify/certificate.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
-#include "race/exact.hpp"
+#include "core/fraction.hpp"
 
 namespace overshoot {
 

@@ -14,15 +14,15 @@ namespace {
 int destination(const Board& b, int s, int m) {
     const int n = b.length;
     int t = s + m;
-    if (t < n) return b.resolve[t];
+    if (t < n) return b.after_jumps[t];
     if (t == n) return n;
     switch (b.rule) {
         case Overshoot::stay: return s;
         case Overshoot::pass: return n;
         case Overshoot::bounce: {
             int excess = t - n;
-            if (excess > n) return b.resolve[0];
-            return b.resolve[n - excess];
+            if (excess > n) return b.after_jumps[0];
+            return b.after_jumps[n - excess];
         }
     }
     return s;
@@ -118,12 +118,12 @@ Chain build_chain(const Board& board, const Option& option) {
     }
     c.max_in_degree = *std::max_element(in_degree.begin(), in_degree.end());
     c.resting.resize(n);
-    for (int s = 0; s < n; ++s) c.resting[s] = board.resolve[s] == s ? 1 : 0;
+    for (int s = 0; s < n; ++s) c.resting[s] = board.after_jumps[s] == s ? 1 : 0;
     mark_stuck(c);
-    c.plain.assign(n, 1);
+    c.row_stays_live.assign(n, 1);
     for (int s = 0; s < n; ++s)
         for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
-            if (c.dest[k] == n || c.stuck[c.dest[k]]) c.plain[s] = 0;
+            if (c.dest[k] == n || c.stuck[c.dest[k]]) c.row_stays_live[s] = 0;
     return c;
 }
 

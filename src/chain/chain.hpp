@@ -32,7 +32,7 @@ struct Chain {
 
     std::vector<char> stuck;    // 1 when the finish cannot be reached from s
     std::vector<char> resting;  // 0 for jump sources: no piece ever rests there
-    std::vector<char> plain;    // 1 when no destination of the row is the finish or stuck
+    std::vector<char> row_stays_live;  // 1 when no destination of the row is the finish or stuck
     int max_in_degree = 0;    // most sources feeding one destination (rounding bound)
 
     int rows() const { return length; }

@@ -66,7 +66,7 @@ long double BasicSeries<Real>::step() {
         processed += m;
         const auto begin = c.row_start[s], end = c.row_start[s + 1];
         work_ += static_cast<std::uint64_t>(end - begin);
-        if (c.plain[s]) {
+        if (c.row_stays_live[s]) {
             // Rows are sorted by destination: the first and last bound the support.
             for (auto k = begin; k < end; ++k) next_[c.dest[k]] += m * prob[k];
             if (c.dest[begin] < nlo) nlo = c.dest[begin];

@@ -10,8 +10,8 @@
 #include "cli/registry.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
-#include "render/multi.hpp"
-#include "sweep/balance.hpp"
+#include "race/balance.hpp"
+#include "render/several_pieces.hpp"
 
 namespace overshoot::cli {
 namespace {

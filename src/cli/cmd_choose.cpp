@@ -10,7 +10,7 @@
 #include "cli/registry.hpp"
 #include "core/error.hpp"
 #include "race/choice.hpp"
-#include "render/multi.hpp"
+#include "render/several_pieces.hpp"
 
 namespace overshoot::cli {
 namespace {

@@ -9,7 +9,7 @@
 #include "race/duel.hpp"
 #include "race/exact.hpp"
 #include "render/exact.hpp"
-#include "render/race.hpp"
+#include "render/duel.hpp"
 
 namespace overshoot::cli {
 namespace {

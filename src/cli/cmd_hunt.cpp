@@ -19,11 +19,11 @@
 #include "core/limits.hpp"
 #include "core/parallel.hpp"
 #include "render/sweep.hpp"
-#include "sweep/family.hpp"
-#include "sweep/hunt.hpp"
+#include "core/family.hpp"
+#include "hunt/hunt.hpp"
 
 #ifdef OVERSHOOT_HAVE_MPI
-#include "cluster/ranks.hpp"
+#include "hunt/mpi/ranks.hpp"
 #endif
 
 namespace overshoot::cli {

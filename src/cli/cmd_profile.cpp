@@ -10,7 +10,7 @@
 #include "cli/registry.hpp"
 #include "core/error.hpp"
 #include "core/io.hpp"
-#include "render/race.hpp"
+#include "render/profile.hpp"
 
 namespace overshoot::cli {
 namespace {

@@ -10,8 +10,8 @@
 #include "cli/registry.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
-#include "race/multi.hpp"
-#include "render/multi.hpp"
+#include "race/several_pieces.hpp"
+#include "render/several_pieces.hpp"
 
 namespace overshoot::cli {
 

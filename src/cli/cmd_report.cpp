@@ -14,11 +14,11 @@
 #include "core/error.hpp"
 #include "core/limits.hpp"
 #include "race/choice.hpp"
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 #include "render/figures.hpp"
 #include "render/report.hpp"
 #include "render/svg.hpp"
-#include "sweep/balance.hpp"
+#include "race/balance.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/tournament.hpp"
 

@@ -17,10 +17,10 @@
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
-#include "render/race.hpp"
+#include "render/document.hpp"
 
 #ifdef OVERSHOOT_HAVE_MPI
-#include "cluster/ranks.hpp"
+#include "hunt/mpi/ranks.hpp"
 #endif
 
 namespace overshoot::cli {

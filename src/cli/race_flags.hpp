@@ -6,7 +6,7 @@
 
 #include "cli/arguments.hpp"
 #include "cli/common.hpp"
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 
 namespace overshoot::cli {
 

@@ -38,7 +38,7 @@ Board make_board(int length, Overshoot rule, std::vector<Jump> jumps) {
         next[j.from] = j.to;
     }
     // Follow chains; a chain longer than the number of jumps is a loop.
-    b.resolve.resize(next.size());
+    b.after_jumps.resize(next.size());
     for (int s = 0; s <= length; ++s) {
         int at = s;
         std::size_t steps = 0;
@@ -48,7 +48,7 @@ Board make_board(int length, Overshoot rule, std::vector<Jump> jumps) {
                 throw InputError(fmt::format("jump {}:{}: the jumps form a loop through square {}", s,
                                              next[s], s));
         }
-        b.resolve[s] = at;
+        b.after_jumps[s] = at;
     }
     b.jumps = std::move(jumps);
     return b;

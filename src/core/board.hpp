@@ -21,7 +21,7 @@ struct Board {
     int length = 0;
     Overshoot rule = Overshoot::stay;
     std::vector<Jump> jumps;   // as given (sorted by `from`)
-    std::vector<int> resolve;  // resolve[s]: square reached after following jumps from s
+    std::vector<int> after_jumps;  // after_jumps[s]: the square reached after following jumps from s
 
     // True when no piece can ever move toward the start: no backward jump and a
     // rule other than bounce. Such boards admit the time-free pair programme.

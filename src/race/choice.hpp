@@ -5,7 +5,7 @@
 #include <cstdint>
 #include <vector>
 
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 
 namespace overshoot {
 

@@ -2,8 +2,9 @@
 
 #include <fmt/format.h>
 
+#include "core/fraction.hpp"
 #include "race/exact.hpp"
-#include "render/race.hpp"
+#include "render/document.hpp"
 
 namespace overshoot::render {
 

@@ -2,6 +2,8 @@
 
 #include <fmt/format.h>
 
+#include "core/fraction.hpp"
+
 namespace overshoot::render {
 
 nlohmann::json exact_duel_json(const ExactDuel& e) {

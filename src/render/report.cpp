@@ -6,8 +6,8 @@
 
 #include "render/figures.hpp"
 #include "render/format.hpp"
-#include "render/multi.hpp"
-#include "render/race.hpp"
+#include "render/several_pieces.hpp"
+#include "render/document.hpp"
 #include "render/svg.hpp"
 
 namespace overshoot::render {

@@ -11,8 +11,8 @@
 #include "core/board.hpp"
 #include "core/option.hpp"
 #include "race/choice.hpp"
-#include "race/multi.hpp"
-#include "sweep/balance.hpp"
+#include "race/several_pieces.hpp"
+#include "race/balance.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/tournament.hpp"
 

@@ -6,7 +6,7 @@
 #include <cmath>
 
 #include "render/figures.hpp"
-#include "render/race.hpp"
+#include "render/document.hpp"
 #include "render/tournament.hpp"
 
 namespace overshoot::render {

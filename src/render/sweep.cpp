@@ -5,7 +5,7 @@
 #include <cmath>
 
 #include "render/format.hpp"
-#include "render/race.hpp"
+#include "render/document.hpp"
 #include "render/tournament.hpp"
 
 namespace overshoot::render {

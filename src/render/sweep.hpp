@@ -4,7 +4,7 @@
 #include <nlohmann/json.hpp>
 #include <string>
 
-#include "sweep/hunt.hpp"
+#include "hunt/hunt.hpp"
 #include "sweep/sweep.hpp"
 
 namespace overshoot::render {

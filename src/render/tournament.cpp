@@ -6,7 +6,7 @@
 #include <cmath>
 
 #include "render/format.hpp"
-#include "render/race.hpp"
+#include "render/document.hpp"
 
 namespace overshoot::render {
 

@@ -11,7 +11,7 @@
 
 #include "core/board.hpp"
 #include "core/option.hpp"
-#include "sweep/lengths.hpp"
+#include "lengths/lengths.hpp"
 #include "tournament/tournament.hpp"
 
 namespace overshoot {

@@ -1,4 +1,4 @@
-// libFuzzer target: the hunt checkpoint reader (sweep/checkpoint.hpp,
+// libFuzzer target: the hunt checkpoint reader (hunt/checkpoint.hpp,
 // decode_checkpoint). Checkpoints outlive crashes and travel between MPI
 // ranks; a damaged one must end in InputError, never a crash or a record that
 // breaks the promises the hunt relies on.
@@ -8,7 +8,7 @@
 #include <string>
 
 #include "core/error.hpp"
-#include "sweep/checkpoint.hpp"
+#include "hunt/checkpoint.hpp"
 
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     if (size > 65536) return 0;

@@ -7,7 +7,7 @@ A hunt with --checkpoint is killed with SIGKILL (no chance to clean up) at
 several random moments, each time resumed with --resume. After every kill,
 every file the hunt writes must be absent, unchanged (the old file) or
 complete: the checkpoint is parsed by an independent reader of the format in
-src/sweep/checkpoint.hpp and must hold at least the records of the one before
+src/hunt/checkpoint.hpp and must hold at least the records of the one before
 it, and the result file is either absent or the full JSON document. The last
 resume runs to the end; its result must equal an uninterrupted run byte for
 byte. The checkpoint is saved about every 5 s, so the hunt is sized to run
@@ -35,7 +35,7 @@ def fail(msg):
 
 
 def read_checkpoint(path):
-    """Parses a checkpoint (format of src/sweep/checkpoint.hpp); returns
+    """Parses a checkpoint (format of src/hunt/checkpoint.hpp); returns
     (lengths, {(variant, a, b): bytes of the record}) or fails."""
     data = open(path, "rb").read()
     pos = 0

@@ -1,4 +1,4 @@
-#include "cluster/ranks.hpp"
+#include "hunt/mpi/ranks.hpp"
 
 #include <mpi.h>
 #include <fmt/format.h>
@@ -13,7 +13,7 @@
 
 #include "core/error.hpp"
 #include "core/parallel.hpp"
-#include "sweep/checkpoint.hpp"
+#include "hunt/checkpoint.hpp"
 
 namespace overshoot::cluster {
 

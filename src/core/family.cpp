@@ -1,4 +1,4 @@
-#include "sweep/family.hpp"
+#include "core/family.hpp"
 
 #include <fmt/format.h>
 

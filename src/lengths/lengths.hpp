@@ -23,6 +23,7 @@
 
 #include "core/board.hpp"
 #include "core/option.hpp"
+#include "lengths/method.hpp"
 
 namespace overshoot {
 
@@ -32,15 +33,6 @@ struct LengthOutcome {
     double bound = 0;
     double margin() const { return win - loss; }
     double error_bound() const { return 2 * bound; }
-};
-
-enum class LengthMethod { automatic, series, pairs };
-
-struct LengthSettings {
-    LengthMethod method = LengthMethod::automatic;
-    double close_target = 1e-15;  // a series start closes when G^A G^B is below this
-    int threads = 0;              // 0: every core
-    std::atomic<bool>* cancel = nullptr;  // set to stop early (results marked not done)
 };
 
 struct PairRequest {
@@ -81,24 +73,6 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
                                         const std::vector<int>& lengths, const std::vector<PairRequest>& pairs,
                                         const LengthSettings& settings = {});
 
-// Estimated turns the series needs for a pair on lengths up to max_length
-// (bulk of the slower option plus the product tail), for choosing the method.
-double series_turns_estimate(const Option& a, const Option& b, Overshoot rule, int max_length);
-
-// A planning estimate for one pair on lengths up to max_length: the method the
-// settings pick (the automatic choice of all_lengths) and its work in
-// multiply-adds, with the series' option stepping counted for this pair alone.
-struct PairCost {
-    bool series = false;
-    double turns = 0;        // estimated turns of the series
-    double work = 0;         // whole pair
-    double step_work = 0;    // of that, stepping the two options (shared between pairs of a group)
-};
-PairCost estimate_pair_cost(const Option& a, const Option& b, Overshoot rule, Order order, int max_length,
-                            const LengthSettings& settings = {});
-
-std::string_view to_string(LengthMethod m);
-LengthMethod parse_length_method(std::string_view text);
 JumpAnchor parse_anchor(std::string_view text);
 
 }  // namespace overshoot

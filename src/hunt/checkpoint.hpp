@@ -2,7 +2,7 @@
 // Checkpoints of long hunts: the pairwise results already computed, so that
 // --resume continues without redoing them. Written atomically (core/io.hpp):
 // an interrupted write never leaves a broken file. The same bytes carry a
-// rank's results to rank 0 in a hunt run as MPI ranks (src/cluster).
+// rank's results to rank 0 in a hunt run as MPI ranks (src/hunt/mpi).
 //
 // Format 2 (docs/sweep.md): a text header
 //   overshoot hunt checkpoint 2

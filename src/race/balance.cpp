@@ -1,4 +1,4 @@
-#include "sweep/balance.hpp"
+#include "race/balance.hpp"
 
 #include <fmt/format.h>
 
@@ -160,7 +160,7 @@ HeadStartResult balance_starts(RaceCache& cache, int n, int lo, int hi, int keep
     if (keep < 1) keep = 1;
     StartSearch s{cache, n, {}, keep, prune, cache.order(), {}, {}, {}, 0, {}, {}};
     for (int q = lo; q <= hi; ++q)
-        if (board.resolve[q] < board.length) s.squares.push_back(q);  // a jump into the finish is no start
+        if (board.after_jumps[q] < board.length) s.squares.push_back(q);  // a jump into the finish is no start
     if (s.squares.empty()) throw InputError(fmt::format("--starts {}..{}: no square there can hold a piece", lo, hi));
     double total = std::pow(static_cast<double>(s.squares.size()), n);
     if (total > 1e9)
@@ -168,7 +168,7 @@ HeadStartResult balance_starts(RaceCache& cache, int n, int lo, int hi, int keep
     s.tracks.resize(n);
     for (int o = 0; o < n; ++o)
         for (int q : s.squares) {
-            const PieceTrack& t = cache.track(o, board.resolve[q]);
+            const PieceTrack& t = cache.track(o, board.after_jumps[q]);
             s.tracks[o].push_back(&t);
             s.horizon = std::max(s.horizon, t.f.size() - 1);
         }

@@ -1,4 +1,4 @@
-#include "sweep/checkpoint.hpp"
+#include "hunt/checkpoint.hpp"
 
 #include <fmt/format.h>
 

@@ -1,4 +1,4 @@
-#include "render/multi.hpp"
+#include "render/several_pieces.hpp"
 
 #include <fmt/format.h>
 
@@ -7,7 +7,7 @@
 #include <map>
 
 #include "render/format.hpp"
-#include "render/race.hpp"
+#include "render/document.hpp"
 
 namespace overshoot::render {
 

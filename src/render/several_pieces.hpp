@@ -8,8 +8,8 @@
 #include "core/board.hpp"
 #include "core/option.hpp"
 #include "race/choice.hpp"
-#include "race/multi.hpp"
-#include "sweep/balance.hpp"
+#include "race/several_pieces.hpp"
+#include "race/balance.hpp"
 
 namespace overshoot::render {
 

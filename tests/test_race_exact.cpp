@@ -11,6 +11,7 @@
 #include "chain/chain.hpp"
 #include "core/error.hpp"
 #include "race/duel.hpp"
+#include "core/fraction.hpp"
 #include "race/exact.hpp"
 
 using namespace overshoot;

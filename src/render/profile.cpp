@@ -1,31 +1,13 @@
-#include "render/race.hpp"
+#include "render/profile.hpp"
 
 #include <fmt/format.h>
 
 #include <cmath>
 
+#include "render/document.hpp"
 #include "render/format.hpp"
 
 namespace overshoot::render {
-
-namespace {
-nlohmann::json maybe(double x) { return std::isfinite(x) ? nlohmann::json(x) : nlohmann::json(nullptr); }
-nlohmann::json maybe(const std::optional<long long>& v) { return v ? nlohmann::json(*v) : nlohmann::json(nullptr); }
-}  // namespace
-
-nlohmann::json document(const std::string& kind, int schema_version) {
-    nlohmann::json j;
-    j["schema"] = fmt::format("overshoot.{}/{}", kind, schema_version);
-    j["version"] = version;
-    return j;
-}
-
-nlohmann::json board_json(const Board& b, Order order) {
-    nlohmann::json jumps = nlohmann::json::array();
-    for (const Jump& j : b.jumps) jumps.push_back({j.from, j.to});
-    return {{"length", b.length}, {"overshoot", std::string(to_string(b.rule))},
-            {"jumps", jumps}, {"order", std::string(to_string(order))}};
-}
 
 std::string profile_text(const Board& board, Order order, const std::vector<ProfileEntry>& entries) {
     (void)order;
@@ -84,13 +66,13 @@ nlohmann::json profile_json(const Board& board, Order order, const std::vector<P
         o["spec"] = e.option->spec;
         o["p_finish"] = p.p_finish;
         o["p_stuck"] = p.p_stuck;
-        o["mean_turns_given_finish"] = maybe(p.mean_turns_given_finish);
-        o["sd_turns_given_finish"] = maybe(p.sd_turns_given_finish);
+        o["mean_turns_given_finish"] = number_or_null(p.mean_turns_given_finish);
+        o["sd_turns_given_finish"] = number_or_null(p.sd_turns_given_finish);
         o["median_turns"] = nullptr;
         nlohmann::json qs = nlohmann::json::array();
         for (const auto& q : p.quantiles) {
-            if (q.q == 0.5) o["median_turns"] = maybe(q.turns);
-            qs.push_back({{"q", q.q}, {"turns", maybe(q.turns)}, {"resolved", q.resolved}});
+            if (q.q == 0.5) o["median_turns"] = number_or_null(q.turns);
+            qs.push_back({{"q", q.q}, {"turns", number_or_null(q.turns)}, {"resolved", q.resolved}});
         }
         o["quantiles"] = qs;
         o["stuck_squares"] = p.stuck_squares;
@@ -111,58 +93,6 @@ std::string distribution_csv(const std::vector<std::pair<const Option*, Distribu
         out += fmt::format("{},never,{:.17g},\n", o->name, static_cast<double>(d.never));
     }
     return out;
-}
-
-std::string duel_text(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r) {
-    std::string out = describe(board, order) + "\n\n";
-    std::vector<std::vector<std::string>> rows{
-        {a.name + " wins", percent(static_cast<double>(r.p_a_wins))},
-        {b.name + " wins", percent(static_cast<double>(r.p_b_wins))},
-        {"tie (shared finish)", percent(static_cast<double>(r.p_tie))},
-        {"neither finishes", percent(static_cast<double>(r.p_neither))}};
-    out += table({"outcome", "probability"}, rows);
-    double m = r.margin();
-    out += "\n";
-    if (r.a_beats_b())
-        out += fmt::format("{} beats {} by {:.4f} points of probability.\n", a.name, b.name, 100 * m);
-    else if (r.b_beats_a())
-        out += fmt::format("{} beats {} by {:.4f} points of probability.\n", b.name, a.name, -100 * m);
-    else
-        out += fmt::format("{} and {} are undecided: the margin {:.3g} is within the error bound.\n", a.name, b.name, m);
-    out += fmt::format("error bound on the margin: {:.2g} ({}, method {})\n", r.error_bound(),
-                       r.bound_proven ? (r.target_met ? "proven" : "proven, target not reached within the work limit")
-                                      : "estimated, not proven",
-                       r.method);
-    if (std::isfinite(r.mean_rounds))
-        out += fmt::format("race length: mean {:.3f} rounds to the first finish, median {}\n", r.mean_rounds,
-                           r.median_resolved ? optional_int(r.median_rounds) : "unresolved");
-    else
-        out += "race length: no piece can ever finish\n";
-    if (r.error_bound() > 1e-12)
-        out += fmt::format("note: the target bound 1e-12 was not reached; {:.2g} is the bound proven.\n",
-                           r.error_bound());
-    return out;
-}
-
-nlohmann::json duel_json(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r) {
-    nlohmann::json j = document("duel", 1);
-    j["board"] = board_json(board, order);
-    j["a"] = {{"name", a.name}, {"spec", a.spec}};
-    j["b"] = {{"name", b.name}, {"spec", b.spec}};
-    j["p_a_wins"] = static_cast<double>(r.p_a_wins);
-    j["p_b_wins"] = static_cast<double>(r.p_b_wins);
-    j["p_tie"] = static_cast<double>(r.p_tie);
-    j["p_neither"] = static_cast<double>(r.p_neither);
-    j["margin"] = r.margin();
-    j["error_bound"] = r.error_bound();
-    j["probability_error_bound"] = static_cast<double>(r.bound);
-    j["bound_proven"] = r.bound_proven;
-    j["target_met"] = r.target_met;
-    j["method"] = r.method;
-    j["mean_rounds"] = maybe(r.mean_rounds);
-    j["median_rounds"] = r.median_resolved ? maybe(r.median_rounds) : nlohmann::json(nullptr);
-    j["median_resolved"] = r.median_resolved;
-    return j;
 }
 
 }  // namespace overshoot::render

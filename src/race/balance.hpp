@@ -9,7 +9,7 @@
 
 #include "core/board.hpp"
 #include "core/option.hpp"
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 
 namespace overshoot {
 

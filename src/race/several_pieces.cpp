@@ -1,4 +1,4 @@
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 
 #include <fmt/format.h>
 
@@ -25,7 +25,7 @@ int resolve_start(const Board& board, int start) {
     if (start < 0 || start >= board.length)
         throw InputError(fmt::format("start square {}: must be in 0..{} on a board of length {}", start,
                                      board.length - 1, board.length));
-    const int r = board.resolve[start];
+    const int r = board.after_jumps[start];
     if (r >= board.length)
         throw InputError(fmt::format("start square {}: its jump leads straight to the finish", start));
     return r;

@@ -1,6 +1,6 @@
 #pragma once
 // A hunt run as MPI ranks (`mpirun -np N overshoot hunt ...`). Rank 0 loads
-// the checkpoints, plans the shards (sweep/hunt.hpp) and sends the plan to
+// the checkpoints, plans the shards (hunt/plan.hpp) and sends the plan to
 // every rank; each rank computes its own shards with all its threads and
 // keeps them in its own checkpoint file (FILE.rank<r>); rank 0 gathers the
 // results, saves the merged checkpoint and searches the cycles. The output is
@@ -12,7 +12,7 @@
 #include <string>
 #include <vector>
 
-#include "sweep/hunt.hpp"
+#include "hunt/hunt.hpp"
 
 namespace overshoot::cluster {
 

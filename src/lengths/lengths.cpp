@@ -1,0 +1,227 @@
+#include "lengths/lengths.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <mutex>
+#include <thread>
+
+#include "chain/chain.hpp"
+#include "core/error.hpp"
+#include "core/limits.hpp"
+#include "lengths/diagonal.hpp"
+#include "lengths/distance.hpp"
+#include "lengths/series.hpp"
+#include "lengths/tallies.hpp"
+#include "race/duel.hpp"
+
+namespace overshoot {
+
+using lengths_engine::DistanceModel;
+
+JumpAnchor parse_anchor(std::string_view t) {
+    if (t == "start") return JumpAnchor::start;
+    if (t == "finish") return JumpAnchor::finish;
+    throw InputError(fmt::format("--anchor '{}': expected start or finish", t));
+}
+
+bool all_lengths_applies(Overshoot rule, bool has_jumps) { return !has_jumps && rule != Overshoot::bounce; }
+
+std::vector<Jump> anchored_jumps(const std::vector<Jump>& jumps, JumpAnchor anchor, int reference, int length) {
+    std::vector<Jump> out;
+    for (const Jump& j : jumps) {
+        Jump k = j;
+        if (anchor == JumpAnchor::finish) {
+            k.from = length - (reference - j.from);
+            k.to = length - (reference - j.to);
+        }
+        if (k.from >= 1 && k.from <= length - 1 && k.to >= 0 && k.to <= length && k.from != k.to) out.push_back(k);
+    }
+    return out;
+}
+
+namespace {
+
+int thread_count(int requested) {
+    if (requested > 0) return requested;
+    return static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
+}
+
+}  // namespace
+
+std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Overshoot rule, Order order,
+                                     int max_length, const std::vector<PairRequest>& requests,
+                                     const LengthSettings& s, const std::function<void(const PairLengths&)>& on_done) {
+    if (rule == Overshoot::bounce)
+        throw InternalError("all_lengths: the rule bounce goes board by board");
+    const int L = max_length;
+    if (L < 1) throw InputError("the longest length of a sweep must be at least 1");
+    // Which options take part.
+    std::vector<char> needed(options.size(), 0);
+    for (const auto& r : requests) needed[r.a] = needed[r.b] = 1;
+    std::vector<DistanceModel> dist(options.size());
+    for (std::size_t i = 0; i < options.size(); ++i) {
+        if (!needed[i]) continue;
+        limits::check_memory(static_cast<std::uint64_t>(L + 1) * 8 * 10 + chain_memory_estimate(make_board(std::min(L, options[i].max_move() + 1), rule, {}), options[i]),
+                             "the all-lengths engine");
+        dist[i] = lengths_engine::build_distance_model(options[i], rule, L);
+    }
+    std::vector<PairLengths> out(requests.size());
+    std::vector<char> to_series(requests.size(), 0);
+    for (std::size_t k = 0; k < requests.size(); ++k) {
+        out[k].a = requests[k].a;
+        out[k].b = requests[k].b;
+        if (requests[k].a == requests[k].b) throw InternalError("all_lengths: a pair of one option with itself");
+        const DistanceModel& A = dist[requests[k].a];
+        const DistanceModel& B = dist[requests[k].b];
+        const double est = lengths_engine::turns_estimate(A, B, s.close_target);
+        to_series[k] = lengths_engine::series_chosen(s.method, est, L) ? 1 : 0;
+    }
+    std::mutex done_mutex;
+    auto finish = [&](std::size_t k, std::vector<LengthOutcome> v, const char* method) {
+        std::lock_guard<std::mutex> lock(done_mutex);
+        out[k].by_length = std::move(v);
+        out[k].method = method;
+        out[k].done = true;
+        if (on_done) on_done(out[k]);
+    };
+    // Jobs: the series group first (it shares option vectors), then one per programme pair.
+    std::vector<std::size_t> pp_jobs;
+    std::vector<std::size_t> series_list;
+    for (std::size_t k = 0; k < requests.size(); ++k) (to_series[k] ? series_list : pp_jobs).push_back(k);
+    std::vector<std::size_t> fallback;  // series pairs that hit their cap
+    std::mutex fallback_mutex;
+    std::atomic<std::size_t> next{0};
+    std::exception_ptr failure;
+    std::mutex failure_mutex;
+    std::atomic<bool> series_done{series_list.empty()};
+    auto series_job = [&] {
+        std::vector<lengths_engine::SeriesOption> opts(options.size());
+        for (std::size_t i = 0; i < options.size(); ++i) opts[i].o = &dist[i];
+        std::vector<lengths_engine::SeriesPair> sp(series_list.size());
+        for (std::size_t q = 0; q < series_list.size(); ++q) {
+            const std::size_t k = series_list[q];
+            sp[q].index = k;
+            sp[q].A = &opts[requests[k].a];
+            sp[q].B = &opts[requests[k].b];
+            sp[q].A->used = sp[q].B->used = true;
+            sp[q].races = needed_races(order);
+            const double est = lengths_engine::turns_estimate(dist[requests[k].a], dist[requests[k].b], s.close_target);
+            sp[q].cap = 3 * est + 2000;
+        }
+        lengths_engine::run_series(opts, sp, L, s.close_target, s.cancel);
+        for (auto& p : sp) {
+            if (p.failed) {
+                std::lock_guard<std::mutex> lock(fallback_mutex);
+                fallback.push_back(p.index);
+                continue;
+            }
+            std::vector<double> neither(L + 1, 0);
+            for (int d = 1; d <= L; ++d) neither[d] = p.A->o->p_never[d] * p.B->o->p_never[d];
+            finish(p.index, lengths_engine::combine(order, L, p.sim, p.af, p.bf, neither, p.close_bound), "series");
+        }
+    };
+    auto work = [&](bool first) {
+        try {
+            if (first && !series_list.empty()) {
+                series_job();
+                series_done = true;
+            }
+            for (std::size_t j; (j = next.fetch_add(1)) < pp_jobs.size();) {
+                const std::size_t k = pp_jobs[j];
+                finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel), "pairs");
+            }
+        } catch (const lengths_engine::Cancelled&) {
+            next.store(pp_jobs.size());
+        } catch (...) {
+            std::lock_guard<std::mutex> lock(failure_mutex);
+            if (!failure) failure = std::current_exception();
+            next.store(pp_jobs.size());
+        }
+    };
+    const int threads = thread_count(s.threads);
+    std::vector<std::thread> pool;
+    for (int i = 1; i < threads; ++i) pool.emplace_back(work, false);
+    work(true);
+    for (auto& th : pool) th.join();
+    if (failure) std::rethrow_exception(failure);
+    // Series pairs that did not close in time: the programme, exact whatever the cap.
+    std::sort(fallback.begin(), fallback.end());
+    for (std::size_t k : fallback) {
+        if (s.cancel && s.cancel->load()) break;
+        try {
+            finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel), "pairs");
+        } catch (const lengths_engine::Cancelled&) {
+            break;
+        }
+    }
+    return out;
+}
+
+std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Overshoot rule, Order order,
+                                        const std::vector<Jump>& jumps, JumpAnchor anchor,
+                                        const std::vector<int>& lengths, const std::vector<PairRequest>& requests,
+                                        const LengthSettings& s) {
+    const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
+    std::vector<PairLengths> out(requests.size());
+    for (std::size_t k = 0; k < requests.size(); ++k) {
+        out[k].a = requests[k].a;
+        out[k].b = requests[k].b;
+        out[k].method = "board";
+        out[k].by_length.assign(top + 1, LengthOutcome{});
+    }
+    std::atomic<std::size_t> next{0};
+    std::atomic<bool> stopped{false};
+    std::exception_ptr failure;
+    std::mutex failure_mutex;
+    DuelSettings ds;
+    ds.want_median = false;
+    auto work = [&] {
+        try {
+            for (std::size_t j; (j = next.fetch_add(1)) < lengths.size();) {
+                if (s.cancel && s.cancel->load()) {
+                    stopped = true;
+                    break;
+                }
+                const int len = lengths[j];
+                Board board = make_board(len, rule, anchored_jumps(jumps, anchor, top, len));
+                std::vector<Chain> chains(options.size());
+                std::vector<char> built(options.size(), 0);
+                for (const auto& r : requests)
+                    for (std::size_t i : {r.a, r.b})
+                        if (!built[i]) {
+                            chains[i] = build_chain(board, options[i]);
+                            built[i] = 1;
+                        }
+                for (std::size_t k = 0; k < requests.size(); ++k) {
+                    DuelResult r = duel(chains[requests[k].a], chains[requests[k].b], order, ds);
+                    LengthOutcome& o = out[k].by_length[len];
+                    o.win = static_cast<double>(r.p_a_wins);
+                    o.loss = static_cast<double>(r.p_b_wins);
+                    o.tie = static_cast<double>(r.p_tie);
+                    o.neither = static_cast<double>(r.p_neither);
+                    // Rounded to double here: widen the bound by that rounding.
+                    o.bound = static_cast<double>(r.bound) + 2 * lengths_engine::unit_d;
+                    if (!r.bound_proven || !r.target_met) o.bound = std::numeric_limits<double>::infinity();
+                }
+            }
+        } catch (...) {
+            std::lock_guard<std::mutex> lock(failure_mutex);
+            if (!failure) failure = std::current_exception();
+            next.store(lengths.size());
+        }
+    };
+    const int threads = thread_count(s.threads);
+    std::vector<std::thread> pool;
+    for (int i = 1; i < threads; ++i) pool.emplace_back(work);
+    work();
+    for (auto& th : pool) th.join();
+    if (failure) std::rethrow_exception(failure);
+    for (auto& p : out) p.done = !stopped;
+    return out;
+}
+
+}  // namespace overshoot
+

@@ -1,0 +1,97 @@
+#include "lengths/method.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+
+#include "core/error.hpp"
+#include "lengths/distance.hpp"
+
+namespace overshoot {
+
+std::string_view to_string(LengthMethod m) {
+    switch (m) {
+        case LengthMethod::automatic: return "auto";
+        case LengthMethod::series: return "series";
+        case LengthMethod::pairs: return "pairs";
+    }
+    return "?";
+}
+
+LengthMethod parse_length_method(std::string_view t) {
+    for (auto m : {LengthMethod::automatic, LengthMethod::series, LengthMethod::pairs})
+        if (t == to_string(m)) return m;
+    throw InputError(fmt::format("method '{}': expected auto, series or pairs", t));
+}
+
+OrderedRaces needed_races(Order order) {
+    OrderedRaces r;
+    switch (order) {
+        case Order::simultaneous: r.simultaneous = true; break;
+        case Order::a_first: r.a_first = true; break;
+        case Order::b_first: r.b_first = true; break;
+        case Order::coin: r.a_first = r.b_first = true; break;
+    }
+    return r;
+}
+
+namespace lengths_engine {
+
+namespace {
+
+double bulk_turns(double mu, double var, int L) {
+    mu = std::max(mu, 1e-9);
+    return L / mu + 8 * std::sqrt(L * std::max(var, 1.0) / (mu * mu * mu)) + 8;
+}
+
+}  // namespace
+
+double turns_estimate(const DistanceModel& a, const DistanceModel& b, double target) {
+    const double bulk = std::max(bulk_turns(a.mean, a.variance, a.max_length), bulk_turns(b.mean, b.variance, b.max_length));
+    const double rate = std::min(1e300, a.tail_rate + b.tail_rate);
+    return bulk + std::log(2 / target) / rate;
+}
+
+bool series_chosen(LengthMethod method, double turns, int max_length) {
+    switch (method) {
+        case LengthMethod::series: return true;
+        case LengthMethod::pairs: return false;
+        // Measured (docs/sweep.md): the series costs about 2 T (kA + kB) L
+        // against 1.3 L^2 (kA + kB) for the programme.
+        case LengthMethod::automatic: return turns <= 0.6 * max_length;
+    }
+    return false;
+}
+
+}  // namespace lengths_engine
+
+double series_turns_estimate(const Option& a, const Option& b, Overshoot rule, int max_length) {
+    lengths_engine::DistanceModel da = lengths_engine::build_distance_model(a, rule, std::min(max_length, a.max_move() + 1));
+    lengths_engine::DistanceModel db = lengths_engine::build_distance_model(b, rule, std::min(max_length, b.max_move() + 1));
+    da.max_length = db.max_length = max_length;
+    return lengths_engine::turns_estimate(da, db, 1e-15);
+}
+
+PairCost estimate_pair_cost(const Option& a, const Option& b, Overshoot rule, Order order, int max_length,
+                            const LengthSettings& s) {
+    lengths_engine::DistanceModel da = lengths_engine::build_distance_model(a, rule, std::min(max_length, a.max_move() + 1));
+    lengths_engine::DistanceModel db = lengths_engine::build_distance_model(b, rule, std::min(max_length, b.max_move() + 1));
+    da.max_length = db.max_length = max_length;
+    PairCost c;
+    c.turns = lengths_engine::turns_estimate(da, db, s.close_target);
+    c.series = lengths_engine::series_chosen(s.method, c.turns, max_length);
+    const double races = needed_races(order).count();
+    const double ka = static_cast<double>(da.moves.size()) + 1, kb = static_cast<double>(db.moves.size()) + 1;
+    const double L = max_length;
+    if (c.series) {
+        // step_two steps two vectors per option; each race adds three terms per start.
+        c.step_work = c.turns * L * 2 * (ka + kb);
+        c.work = c.step_work + c.turns * L * 3 * races;
+    } else {
+        c.work = 1.3 * L * L * (ka + kb) * races;
+    }
+    return c;
+}
+
+}  // namespace overshoot

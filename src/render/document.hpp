@@ -1,0 +1,23 @@
+#pragma once
+// What every JSON document shares: the schema line and the tool's version,
+// the board, and numbers that may be missing.
+#include <nlohmann/json.hpp>
+
+#include <optional>
+#include <string>
+
+#include "core/board.hpp"
+
+namespace overshoot::render {
+
+inline constexpr const char* version = OVERSHOOT_VERSION;
+
+// The fields every JSON document starts with.
+nlohmann::json document(const std::string& kind, int schema_version);
+nlohmann::json board_json(const Board& board, Order order);
+
+// A number, or null when it is not finite / not there.
+nlohmann::json number_or_null(double x);
+nlohmann::json number_or_null(const std::optional<long long>& v);
+
+}  // namespace overshoot::render

@@ -1,0 +1,16 @@
+#pragma once
+// One duel: text for people, JSON for programs.
+#include <nlohmann/json.hpp>
+
+#include <string>
+
+#include "core/board.hpp"
+#include "core/option.hpp"
+#include "race/duel.hpp"
+
+namespace overshoot::render {
+
+std::string duel_text(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r);
+nlohmann::json duel_json(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r);
+
+}  // namespace overshoot::render
