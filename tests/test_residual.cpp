@@ -12,6 +12,7 @@
 #include "certify/lifting.hpp"
 #include "certify/residual.hpp"
 #include "chain/chain.hpp"
+#include "core/limits.hpp"
 #include "race/exact.hpp"
 #include "render/certificate.hpp"
 
@@ -272,4 +273,27 @@ TEST_CASE("exact lifting gives the exact elimination fractions, proven by substi
         CHECK(l.duel->p_tie == e.p_tie);
         CHECK(l.duel->p_neither == e.p_neither);
     });
+}
+
+TEST_CASE("a duel too large for a residual certificate keeps the floating engine's proven interval", "[residual]") {
+    // A memory cap too small for the product chain of 60 squares: the writer
+    // refuses, and the certificate says why beside the interval method.
+    const Board board = make_board(60, Overshoot::bounce, {});
+    const auto o = opts({"2d6", "1d6"});
+    const std::uint64_t saved = limits::memory_bytes();
+    limits::set_memory_bytes(std::uint64_t{1} << 20);
+    Certificate c;
+    try {
+        c = certify(winner(o), board, Order::simultaneous, o, 2);
+    } catch (...) {
+        limits::set_memory_bytes(saved);
+        throw;
+    }
+    limits::set_memory_bytes(saved);
+    REQUIRE(c.duels.size() == 1);
+    CHECK_FALSE(c.duels[0].residual);
+    CHECK(c.duels[0].interval_method.find("no residual certificate: ") != std::string::npos);
+    const CheckReport r = recheck(write(c));
+    INFO(r.failure);
+    CHECK(r.holds);
 }

@@ -193,30 +193,35 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
     const std::size_t m = need.size();
     std::vector<std::optional<ExactDuel>> exact(m);
     std::vector<DuelResult> approx(m);
-    std::vector<std::string> refusal(m);
+    std::vector<char> use_residual(m), use_exact(m);
+    std::vector<std::string> why(m);  // why a residual duel has no fractions, or no residual proof
     std::vector<std::optional<ResidualWriting>> proof(m);
     for (std::size_t t = 0; t < m; ++t) {
         const auto& n = need[t];
         const Chain& ca = chains.at({n.length, by_name.at(n.a)});
-        refusal[t] = exact_refusal(ca, chains.at({n.length, by_name.at(n.b)}));
-        if (!ca.forward_only && (residual || !refusal[t].empty())) refusal[t] = "residual";
+        use_exact[t] = exact_refusal(ca, chains.at({n.length, by_name.at(n.b)})).empty();
+        use_residual[t] = !ca.forward_only && (residual || !use_exact[t]);
     }
+    DuelSettings s;
+    s.want_median = false;
     // Tasks 0..m-1 exact or residual (the slow ones first), m..2m-1 floating point.
     parallel_for(2 * m, threads, [&](std::size_t t) {
         const auto& n = need[t % m];
         const Chain& ca = chains.at({n.length, by_name.at(n.a)});
         const Chain& cb = chains.at({n.length, by_name.at(n.b)});
-        if (t < m) {
-            if (refusal[t].empty()) exact[t] = exact_duel(ca, cb, order);
-            else if (refusal[t] == "residual") {
+        if (t < m && use_residual[t]) {
+            try {
                 proof[t] = write_residual(ca, cb, order);
                 LiftedDuel l = lifted_duel(ca, cb, order);
                 exact[t] = std::move(l.duel);
-                refusal[t] = l.refusal;
+                why[t] = l.refusal;
+            } catch (const LimitError& e) {  // too large: proven intervals of the floating engine instead
+                why[t] = e.what();
+                approx[t] = duel(ca, cb, order, s);
             }
-        } else if (refusal[t - m] != "residual") {
-            DuelSettings s;
-            s.want_median = false;
+        } else if (t < m && use_exact[t]) {
+            exact[t] = exact_duel(ca, cb, order);
+        } else if (t >= m && !use_residual[t - m]) {
             approx[t - m] = duel(ca, cb, order, s);
         }
     });
@@ -227,7 +232,7 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
         d.b = need[i].b;
         d.length = need[i].length;
         if (proof[i]) {
-            residual_values(d, *proof[i], exact[i], refusal[i]);
+            residual_values(d, *proof[i], exact[i], why[i]);
             cert.duels.push_back(std::move(d));
             continue;
         }
@@ -237,7 +242,8 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
         d.p_tie = interval(r.p_tie, bound, true);
         d.p_neither = interval(r.p_neither, bound, true);
         d.margin = interval(r.p_a_wins - r.p_b_wins, 2 * bound, false);
-        d.interval_method = r.method + (r.bound_proven ? "" : " (bound not proven: interval widened to the trivial one)");
+        d.interval_method = r.method + (r.bound_proven ? "" : " (bound not proven: interval widened to the trivial one)") +
+                            (use_residual[i] ? " (no residual certificate: " + why[i] + ")" : "");
         if (exact[i]) {
             const ExactDuel& e = *exact[i];
             d.exact_method = e.method;

@@ -189,6 +189,9 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
     out.part.states = p.states;
     const std::size_t m = p.states.size();
     if (m == 0) return out;  // the race can never end from the start: every value is 0
+    if (m > residual_max_states)
+        throw LimitError(fmt::format("residual certificate: {} states exceed the {} its writer handles", m,
+                                     residual_max_states));
     const double full_d = static_cast<double>(p.full);
     std::vector<Eigen::Triplet<double>> trip;
     trip.reserve(p.col.size() + m);

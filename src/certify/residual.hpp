@@ -64,6 +64,11 @@ struct ProductChain {
 };
 ProductChain build_product_chain(const Chain& a, const Chain& b, Mover first);
 
+// Largest product chain (live states of one part) the writer factors; beyond
+// it (or the memory cap) write_residual throws LimitError and certificates
+// fall back to the floating engine's proven intervals.
+inline constexpr std::size_t residual_max_states = 200000;
+
 // The writer: values refined until the rounding of the last digit dominates.
 // Throws LimitError when the product chain exceeds the memory cap.
 struct ResidualWriting {
