@@ -127,6 +127,22 @@ TEST_CASE("heavy options on a bounce board give residual intervals no wider than
     }
 }
 
+TEST_CASE("two slow options on a stay board with a backward jump: h near 10^4 and still 1e-15", "[residual]") {
+    // 4d12 against 5d12 on 40 squares: near the finish both need one exact sum
+    // (5d12 at distance 5: one roll in 248,832), so the race lasts thousands of
+    // rounds and the system is ill-conditioned; the writer adds digits.
+    const Board board = make_board(40, Overshoot::stay, {{30, 10}});
+    const auto o = opts({"4d12", "5d12"});
+    const Chain a = build_chain(board, o[0]), b = build_chain(board, o[1]);
+    const ResidualWriting w = write_residual(a, b, Order::simultaneous);
+    ResidualBounds r;
+    REQUIRE(check_residual(w.proof, a, b, Order::simultaneous, r).empty());
+    CHECK(w.proof.parts[0].rounds[0] > 10000 * 1000);  // h(0, 0) above 10^4 rounds (3 decimals)
+    CHECK(w.proof.parts[0].digits > 20);
+    for (int k = 0; k < 5; ++k) CHECK(2 * r.radius[k] <= kWidth);
+    CHECK(r.centre[4] - r.radius[4] > 0);  // 4d12 beats 5d12 here
+}
+
 TEST_CASE("residual certificates resist tampering: what still holds is still true", "[residual]") {
     // Hundreds of single edits: one value of x~ or h changed by one unit in
     // its last digit, or one state dropped. `check` must fail, or else the

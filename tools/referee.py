@@ -16,6 +16,14 @@ outcomes add up to 1, that the margin is P(A wins) - P(B wins), that every
 verdict follows from the sign of the margin, and that the verdicts make the
 claim (cycle, crossover or winner) true.
 
+A duel that carries a residual certificate (general boards beyond exact
+elimination; docs/certificate.md, "Residual duels") is verified instead in
+integers: the live states reachable from the start by graph search, the
+bound h >= 1 + Q h on the remaining rounds, and the exact residuals, which
+prove |x - x~| <= max|rho| h; every recorded interval must contain the proven
+one and the verdicts must follow from the proven margins. This is fast (about
+half a second per 10,000 states), so such duels are always re-derived.
+
 It shares no code with overshoot. It is slow on purpose (plain fractions,
 reduced at every step): a duel with more than --max-cells pairs of squares
 (default 20000, about 140 squares) is not solved; instead the referee times
