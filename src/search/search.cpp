@@ -11,6 +11,7 @@
 #include "chain/chain.hpp"
 #include "core/error.hpp"
 #include "core/parallel.hpp"
+#include "search/screen.hpp"
 
 namespace overshoot {
 
@@ -178,13 +179,7 @@ bool better(const Candidate& x, const Candidate& y) {
 
 class Searcher {
 public:
-    explicit Searcher(const SearchSpec& s) : spec_(s) {
-        screen_.want_median = false;
-        // Screening needs the order of scores, not the last digits: a looser
-        // truncation target; the reported boards are raced again at full precision.
-        screen_.target = 1e-11L;
-        screen_.work_limit = 400'000'000ULL;
-    }
+    explicit Searcher(const SearchSpec& s) : spec_(s) {}
 
     std::vector<Jump> base_jumps() const { return spec_.board.jumps; }
 
@@ -205,14 +200,15 @@ public:
                 c.valid = false;
                 return;
             }
-            std::vector<Chain> chains;
-            for (const auto& o : spec_.options) chains.push_back(build_chain(b, o));
-            const auto r = duel_matrix(chains, spec_.order, screen_, 1);
+            std::vector<ScreenTrack> tracks;
+            for (const auto& o : spec_.options) tracks.push_back(screen_track(build_chain(b, o)));
             const std::size_t n = spec_.options.size();
             std::vector<double> margin(n * n, 0.0);
             for (std::size_t i = 0; i < n; ++i)
-                for (std::size_t j = 0; j < n; ++j)
-                    if (i != j) margin[i * n + j] = r[i * n + j].margin();
+                for (std::size_t j = i + 1; j < n; ++j) {
+                    margin[i * n + j] = screen_margin(tracks[i], tracks[j], spec_.order);
+                    margin[j * n + i] = -margin[i * n + j];
+                }
             c.score = score_of(spec_.target, spec_.cycle, n, margin);
         });
         for (const auto& c : cs) {
@@ -295,7 +291,6 @@ private:
     }
 
     const SearchSpec& spec_;
-    DuelSettings screen_;
     std::map<std::pair<int, std::vector<int>>, Candidate> pool_;
     std::uint64_t raced_ = 0, invalid_ = 0;
 };
@@ -459,11 +454,15 @@ SearchResult search_board(const SearchSpec& spec) {
         base.length = out.lengths.front();
         out.base = verify(base);
     }
+    // A few more than asked are raced again, so that boards whose screening
+    // scores were within the screening's error of each other end up in the
+    // order of their verified scores.
     const auto ranked = searcher.ranked();
-    for (std::size_t i = 0; i < ranked.size() && out.best.size() < static_cast<std::size_t>(spec.keep); ++i)
-        out.best.push_back(verify(ranked[i]));
+    const std::size_t verified = std::min(ranked.size(), static_cast<std::size_t>(spec.keep) + 4);
+    for (std::size_t i = 0; i < verified; ++i) out.best.push_back(verify(ranked[i]));
     std::stable_sort(out.best.begin(), out.best.end(),
                      [](const FoundBoard& x, const FoundBoard& y) { return x.score > y.score; });
+    if (out.best.size() > static_cast<std::size_t>(spec.keep)) out.best.resize(static_cast<std::size_t>(spec.keep));
     return out;
 }
 
