@@ -367,7 +367,7 @@ TEST_CASE("cli bad input: an invalid board in a scenario names the file", "[cli]
 
 TEST_CASE("cli: hunt --plan-only plans for --ranks without computing", "[cli]") {
     const fs::path out = scratch() / "plan.json";
-    Run r = run({"hunt", "1..3d{4,6,8}", "--lengths", "10..200", "--overshoot", "stay,bounce", "--plan-only",
+    Run r = run({"hunt", "dice(count=1..3, sides=4,6,8)", "--lengths", "10..200", "--overshoot", "stay,bounce", "--plan-only",
                  "--ranks", "3", "--json", "--output", out.string()});
     INFO(r.err);
     REQUIRE(r.status == 0);
@@ -391,7 +391,7 @@ TEST_CASE("cli: hunt --plan-only plans for --ranks without computing", "[cli]") 
     expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--plan-only", "--ranks", "0"}, "--ranks");
     expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--timings"}, "mpirun");
     // Progress lines for logs: at least the closing one, and nothing on stdout but the result.
-    Run p = run({"hunt", "1..3d{4,6}", "--lengths", "10..60", "--progress-every", "1000", "--json"});
+    Run p = run({"hunt", "dice(count=1..3, sides=4,6)", "--lengths", "10..60", "--progress-every", "1000", "--json"});
     REQUIRE(p.status == 0);
     REQUIRE(p.err_lines() == 1);
     REQUIRE(p.err.rfind("overshoot: hunt: 100.0% of its cells after ", 0) == 0);

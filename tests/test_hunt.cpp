@@ -52,7 +52,7 @@ std::string temp_path(const char* name) {
 
 TEST_CASE("a hunt lists each cycle once and agrees with the tournament's cycles", "[hunt]") {
     HuntSpec spec;
-    spec.options = parse_family("1..3d{4,6}");
+    spec.options = parse_family("dice(count=1..3, sides=4,6)");
     spec.grid = parse_lengths("20..60", 2);
     spec.engine.threads = 2;
     HuntResult h = run_hunt(spec);
@@ -83,7 +83,7 @@ TEST_CASE("a hunt lists each cycle once and agrees with the tournament's cycles"
 }
 
 TEST_CASE("an interrupted hunt resumed gives byte-identical output", "[hunt]") {
-    const HuntSpec spec = hunt_spec("1..4d{4,6,8}", "10..120",
+    const HuntSpec spec = hunt_spec("dice(count=1..4, sides=4,6,8)", "10..120",
                                     {{Overshoot::stay, Order::simultaneous}, {Overshoot::pass, Order::coin}}, 2);
     const std::string whole = rendered(run_hunt(spec), spec);
     const std::string path = temp_path("hunt.ckpt");
@@ -111,7 +111,7 @@ TEST_CASE("an interrupted hunt resumed gives byte-identical output", "[hunt]") {
 }
 
 TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks", "[hunt]") {
-    const HuntSpec spec = hunt_spec("1..3d{4,6,8}", "10..60",
+    const HuntSpec spec = hunt_spec("dice(count=1..3, sides=4,6,8)", "10..60",
                                     {{Overshoot::stay, Order::simultaneous}, {Overshoot::bounce, Order::simultaneous}}, 1);
     HuntStore store(spec.options.size(), spec.variants.size(), spec.grid.lengths().size());
     // Some cells already known: a whole pair of the all-lengths variant, a block of the bounce one.
@@ -173,7 +173,7 @@ TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks",
 }
 
 TEST_CASE("shards computed apart and merged give the bytes of one run", "[hunt]") {
-    const HuntSpec spec = hunt_spec("1..3d{4,6,8}", "10..90",
+    const HuntSpec spec = hunt_spec("dice(count=1..3, sides=4,6,8)", "10..90",
                                     {{Overshoot::stay, Order::simultaneous},
                                      {Overshoot::bounce, Order::simultaneous},
                                      {Overshoot::pass, Order::coin}},

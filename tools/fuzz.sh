@@ -1,6 +1,6 @@
 #!/bin/sh
 # Fuzzes every parser with libFuzzer (clang, ASan + UBSan) for a fixed time.
-#   tools/fuzz.sh [TARGET...]      targets: option_spec scenario certificate matrix_csv checkpoint arguments
+#   tools/fuzz.sh [TARGET...]      targets: option_spec scenario certificate matrix_csv checkpoint arguments family
 #   FUZZ_SECONDS=60                time per target (default 60)
 # Builds tests/fuzz (a separate CMake project, so the main build never needs
 # clang) in build-fuzz, replays the kept regression inputs, then fuzzes each
@@ -18,7 +18,7 @@ clang libclang-rt-14-dev llvm"
 . tools/packages.sh
 
 SECONDS_EACH="${FUZZ_SECONDS:-60}"
-TARGETS="${*:-option_spec scenario certificate matrix_csv checkpoint arguments}"
+TARGETS="${*:-option_spec scenario certificate matrix_csv checkpoint arguments family}"
 
 install_missing $PACKAGES
 CC=clang CXX=clang++ cmake -S tests/fuzz -B build-fuzz >/dev/null

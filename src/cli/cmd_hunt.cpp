@@ -19,7 +19,9 @@
 #include "core/limits.hpp"
 #include "core/parallel.hpp"
 #include "render/sweep.hpp"
+#include "core/constraint_family.hpp"
 #include "core/family.hpp"
+#include "core/scenario.hpp"
 #include "hunt/hunt.hpp"
 
 #ifdef OVERSHOOT_HAVE_MPI
@@ -46,8 +48,13 @@ extern "C" void on_signal(int sig) {
 
 struct HuntArgs {
     std::vector<std::string> family;
-    std::string lengths;
+    std::optional<std::string> lengths;
+    std::optional<int> length;
     int step = 1;
+    std::vector<std::string> jumps;
+    CLI::Option* jump_option = nullptr;
+    std::string anchor = "start";
+    std::optional<std::string> scenario;
     std::vector<std::string> rules, orders;
     int cycle_length = 3;
     double min_strength = 0;
@@ -178,10 +185,37 @@ void run_ranks(const HuntArgs& a, HuntSpec& spec) {
 void run(const HuntArgs& a) {
     apply_memory_limit(a.memory_mib);
     HuntSpec spec;
-    spec.options = parse_families(a.family);
-    const auto [lo, hi] = parse_range(a.lengths, "--lengths");
+    // The board: flags, else the scenario's (its options are the family when no family is given).
+    Scenario sc;
+    if (a.scenario) sc = load_scenario(*a.scenario);
+    if (!a.family.empty()) {
+        FamilyOptions f = expand_families(a.family);
+        spec.options = std::move(f.options);
+        spec.merged_options = f.merged;
+    } else if (!sc.options.empty()) {
+        std::vector<Option> opts;
+        for (const auto& ns : sc.options) opts.push_back(parse_option(ns.spec, ns.name));
+        spec.merged_options = merge_equal_options(opts);
+        spec.options = std::move(opts);
+    } else
+        throw InputError("hunt: give a family of options, e.g. 'dice(count=1..6, sides=4,6,8,10,12,20)' (docs/sweep.md)");
+    int lo = 0, hi = 0;
+    if (a.lengths)
+        std::tie(lo, hi) = parse_range(*a.lengths, "--lengths");
+    else if (a.length)
+        lo = hi = *a.length;
+    else if (sc.length)
+        lo = hi = *sc.length;
+    else
+        throw InputError("hunt: give the lengths: --lengths LO..HI, --length N, or a scenario with [board] length");
     spec.grid = LengthGrid{lo, hi, a.step};
-    spec.variants = variants_from(a.rules, a.orders, Overshoot::stay, Order::simultaneous);
+    spec.variants = variants_from(a.rules, a.orders, sc.rule.value_or(Overshoot::stay),
+                                  sc.order.value_or(Order::simultaneous));
+    if (a.jump_option && a.jump_option->count() > 0) {
+        for (const auto& j : a.jumps) spec.jumps.push_back(parse_jump(j));
+    } else if (sc.jumps)
+        spec.jumps = *sc.jumps;
+    spec.anchor = parse_anchor(a.anchor);
     spec.cycle_length = a.cycle_length;
     spec.min_strength = a.min_strength;
     if (a.require) {
@@ -237,14 +271,28 @@ const Registration reg(70, [](CLI::App& app) {
     auto args = std::make_shared<HuntArgs>();
     auto* cmd = app.add_subcommand("hunt", "search a family of options over lengths and rules for intransitive sets");
     // Family words come from the leftovers so that CLI11 never splits
-    // "1..6d{4,6,8}" or "[0,3,3,5]" at its commas.
+    // "dice(count=1..6, sides=4,6,8)" or "[0,3,3,5]" at its commas.
     cmd->allow_extras();
     set_usage(*cmd, "FAMILY... --lengths LO..HI",
-              "the options searched: families such as 1..6d{4,6,8,10,12,20} and specs such as 1d6 or [0,3,3,5] "
+              "the options searched: families such as dice(count=1..6, sides=4,6,8,10,12,20) and specs such as 1d6 or [0,3,3,5] "
               "(docs/sweep.md)");
-    cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI")
-        ->required()
-        ->check(range_in(1, limits::max_length));
+    auto* lengths = cmd->add_option("--lengths", args->lengths, "range of lengths LO..HI (or one length)")
+                        ->check(range_in(1, limits::max_length));
+    cmd->add_option("--length", args->length, "one length (as --lengths N)")
+        ->check(whole_in(1, limits::max_length))
+        ->excludes(lengths);
+    args->jump_option = cmd->add_option("--jump", args->jumps,
+                                        "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO "
+                                        "(replaces the scenario's jumps)")
+                            ->allow_extra_args(false)
+                            ->delimiter(',');
+    cmd->add_option("--anchor", args->anchor,
+                    "jumps stay at the same squares from the start (start) or the same distance from the finish "
+                    "(finish)")
+        ->check(one_of({"start", "finish"}));
+    cmd->add_option("--scenario", args->scenario,
+                    "a TOML scenario file: its board (length, rule, jumps, order) and, with no family given, its "
+                    "options (flags override it)");
     cmd->add_option("--step", args->step, "step between lengths (default 1)")->check(whole_in(1, limits::max_length));
     add_variant_flags(*cmd, args->rules, args->orders,
                       "turn order(s): simultaneous, coin; repeat the flag or comma-separate");
@@ -276,8 +324,6 @@ const Registration reg(70, [](CLI::App& app) {
     cmd->add_flag("--timings", args->timings, "under mpirun: print each rank's time and the imbalance on stderr");
     cmd->callback([args, cmd] {
         args->family = option_words(*cmd);
-        if (args->family.empty())
-            throw InputError("hunt: give a family of options, e.g. '1..6d{4,6,8,10,12,20}' (docs/sweep.md)");
         run(*args);
     });
 });

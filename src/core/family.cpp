@@ -8,6 +8,7 @@
 #include <set>
 #include <sstream>
 
+#include "core/constraint_family.hpp"
 #include "core/error.hpp"
 
 namespace overshoot {
@@ -50,19 +51,12 @@ std::vector<int> range_list(std::string_view s, std::string_view item, bool allo
         throw InputError(fmt::format("family item '{}': missing number of sides after 'd'", item));
     }
     std::vector<int> out;
-    if (s.front() == '{') {
-        if (s.back() != '}') throw InputError(fmt::format("family item '{}': '{{' without a closing '}}'", item));
-        std::string_view body = s.substr(1, s.size() - 2);
-        std::size_t start = 0;
-        while (true) {
-            std::size_t comma = body.find(',', start);
-            std::string_view part = body.substr(start, comma == std::string_view::npos ? body.npos : comma - start);
-            out.push_back(to_int(part, item));
-            if (comma == std::string_view::npos) break;
-            start = comma + 1;
-        }
-        return out;
-    }
+    if (s.front() == '{')
+        // Braces after 'd' list one die's faces in other dice notations; ours
+        // never used them for faces, and the sides list has its own item now.
+        throw InputError(fmt::format("family item '{}': braces after 'd' are not a list of sides; write "
+                                     "dice(count=..., sides=4,6,8) (docs/sweep.md, \"Families\")",
+                                     item));
     auto dots = s.find("..");
     if (dots == std::string_view::npos) return {to_int(s, item)};
     int lo = to_int(s.substr(0, dots), item), hi = to_int(s.substr(dots + 2), item);
@@ -81,7 +75,7 @@ bool dice_item(const std::string& item, std::vector<Option>& out) {
     if (d == std::string::npos) return false;
     std::string count = item.substr(0, d), sides = item.substr(d + 1);
     bool ranged = count.find("..") != std::string::npos || sides.find("..") != std::string::npos ||
-                  (!sides.empty() && sides.front() == '{');
+                  (!sides.empty() && sides.front() == '{');  // refused in range_list, with the new spelling
     if (!ranged) return false;  // plain NdS: let the spec parser take it
     auto is_count = [](const std::string& c) {
         if (c.empty()) return true;
@@ -152,7 +146,9 @@ std::vector<Option> parse_family(std::string_view text) {
                 file_item(trim(raw.substr(1)), out);
             } else {
                 std::string item = strip_spaces(raw);
-                if (!dice_item(item, out)) {
+                if (auto made = expand_keyword_item(item, max_family_size)) {
+                    out.insert(out.end(), made->begin(), made->end());
+                } else if (!dice_item(item, out)) {
                     try {
                         out.push_back(parse_option(raw));
                     } catch (const InputError& e) {
@@ -167,20 +163,26 @@ std::vector<Option> parse_family(std::string_view text) {
     return out;
 }
 
-std::vector<Option> parse_families(const std::vector<std::string>& texts) {
-    std::vector<Option> out;
+FamilyOptions expand_families(const std::vector<std::string>& texts) {
+    FamilyOptions f;
     for (const auto& t : texts) {
         auto part = parse_family(t);
-        out.insert(out.end(), part.begin(), part.end());
-        if (out.size() > max_family_size)
-            throw LimitError(fmt::format("the family has more than {} options", max_family_size));
+        f.options.insert(f.options.end(), part.begin(), part.end());
+        if (f.options.size() > max_family_size)
+            throw LimitError(fmt::format("the family makes at least {} options (before equal ones are merged); the "
+                                         "limit is {}",
+                                         f.options.size(), max_family_size));
     }
+    f.merged = merge_equal_options(f.options);
     std::set<std::string> seen;
-    for (const auto& o : out)
+    for (const auto& o : f.options)
         if (!seen.insert(o.name).second)
             throw InputError(fmt::format("the family lists option '{}' twice; give each option its own name", o.name));
-    if (out.empty()) throw InputError("the family is empty: give items like 1..6d{4,6,8} or @options.txt");
-    return out;
+    if (f.options.empty())
+        throw InputError("the family is empty: give items like dice(count=1..6, sides=4,6,8) or @options.txt");
+    return f;
 }
+
+std::vector<Option> parse_families(const std::vector<std::string>& texts) { return expand_families(texts).options; }
 
 }  // namespace overshoot

@@ -94,7 +94,7 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
     std::vector<std::vector<SeriesPairCost>> series(spec.variants.size());
     for (std::size_t v = 0; v < spec.variants.size(); ++v) {
         const Variant& var = spec.variants[v];
-        if (all_lengths_applies(var.rule, false)) {
+        if (all_lengths_applies(var.rule, !spec.jumps.empty())) {
             for (std::size_t i = 0; i < n; ++i)
                 for (std::size_t j = i + 1; j < n; ++j) {
                     if (store.known(v, i, j)) continue;
@@ -246,7 +246,7 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
     es.cancel = stop;
     for (std::size_t v = 0; v < spec.variants.size() && !stop->load(); ++v) {
         const Variant& var = spec.variants[v];
-        if (all_lengths_applies(var.rule, false)) {
+        if (all_lengths_applies(var.rule, !spec.jumps.empty())) {
             // One call for every pair of this rank: series pairs share their option stepping.
             std::vector<PairRequest> req;
             for (const auto& sh : plan.shards)
@@ -266,7 +266,13 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
             if (stop->load()) break;
             std::vector<int> lens(lengths.begin() + static_cast<std::ptrdiff_t>(sh.first),
                                   lengths.begin() + static_cast<std::ptrdiff_t>(sh.first + sh.count));
-            auto res = board_by_board(spec.options, var.rule, var.order, {}, JumpAnchor::start, lens, sh.pairs, es);
+            // Boards with jumps race every pair of a length together (shared series); the
+            // jump-free bounce variant keeps its duel per pair (its numbers stay as they were).
+            auto res = spec.jumps.empty()
+                           ? board_by_board(spec.options, var.rule, var.order, spec.jumps, spec.anchor, lens, sh.pairs, es,
+                                            lengths.back())
+                           : board_by_board_matrix(spec.options, var.rule, var.order, spec.jumps, spec.anchor, lens,
+                                                   sh.pairs, es, lengths.back());
             for (const auto& p : res)
                 if (p.done) take(v, p.a, p.b, sh.first, sh.count, p.by_length);
         }

@@ -25,6 +25,14 @@ std::uint64_t hunt_fingerprint(const HuntSpec& s) {
     }
     h = fingerprint_text(h, std::string(to_string(s.engine.method)));
     h = fingerprint_bytes(h, &s.engine.close_target, sizeof s.engine.close_target);
+    // Only boards with jumps add to it, so checkpoints of jump-free hunts stay valid.
+    if (!s.jumps.empty()) {
+        h = fingerprint_text(h, s.anchor == JumpAnchor::finish ? "jumps/finish" : "jumps/start");
+        for (const auto& j : s.jumps) {
+            int fj[2] = {j.from, j.to};
+            h = fingerprint_bytes(h, fj, sizeof fj);
+        }
+    }
     return h;
 }
 
@@ -47,6 +55,13 @@ void validate_hunt(const HuntSpec& spec) {
                                          "use simultaneous or coin",
                                          to_string(v.order)));
     if (spec.resume && spec.checkpoint.empty()) throw InputError("--resume needs --checkpoint FILE");
+    // The jumps must make a board at the longest length under every rule (then
+    // every shorter board, which keeps a subset of them, is one too).
+    if (!spec.jumps.empty()) {
+        const std::vector<int> lengths = spec.grid.lengths();
+        if (lengths.empty()) throw InputError("a hunt needs at least one length");
+        for (const auto& v : spec.variants) make_board(lengths.back(), v.rule, spec.jumps);
+    }
 }
 
 }  // namespace overshoot

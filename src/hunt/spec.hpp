@@ -20,6 +20,9 @@ struct HuntSpec {
     std::vector<Option> options;
     LengthGrid grid;
     std::vector<Variant> variants{Variant{}};  // simultaneous or coin only
+    std::vector<Jump> jumps;                    // on the longest board of the grid; none: the all-lengths engine
+    JumpAnchor anchor = JumpAnchor::start;      // where the jumps stay on shorter boards
+    std::size_t merged_options = 0;             // family members dropped as equal to earlier ones (reported)
     int cycle_length = 3;                       // 3 or more
     double min_strength = 0;                    // keep cycles whose strength is at least this
     std::optional<std::size_t> required;        // an option every cycle must contain
@@ -35,7 +38,7 @@ struct HuntSpec {
 
 // Throws InputError when the spec cannot be hunted.
 void validate_hunt(const HuntSpec& spec);
-// What the pairwise data depends on: options, lengths, rules and the method.
+// What the pairwise data depends on: options, lengths, rules, jumps and the method.
 std::uint64_t hunt_fingerprint(const HuntSpec& spec);
 
 }  // namespace overshoot

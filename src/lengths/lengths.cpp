@@ -163,8 +163,9 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
 std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Overshoot rule, Order order,
                                         const std::vector<Jump>& jumps, JumpAnchor anchor,
                                         const std::vector<int>& lengths, const std::vector<PairRequest>& requests,
-                                        const LengthSettings& s) {
+                                        const LengthSettings& s, int reference) {
     const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
+    const int anchor_length = reference > 0 ? reference : top;
     std::vector<PairLengths> out(requests.size());
     for (std::size_t k = 0; k < requests.size(); ++k) {
         out[k].a = requests[k].a;
@@ -186,7 +187,7 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
                     break;
                 }
                 const int len = lengths[j];
-                Board board = make_board(len, rule, anchored_jumps(jumps, anchor, top, len));
+                Board board = make_board(len, rule, anchored_jumps(jumps, anchor, anchor_length, len));
                 std::vector<Chain> chains(options.size());
                 std::vector<char> built(options.size(), 0);
                 for (const auto& r : requests)
@@ -223,5 +224,49 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
     return out;
 }
 
-}  // namespace overshoot
+std::vector<PairLengths> board_by_board_matrix(const std::vector<Option>& options, Overshoot rule, Order order,
+                                               const std::vector<Jump>& jumps, JumpAnchor anchor,
+                                               const std::vector<int>& lengths, const std::vector<PairRequest>& requests,
+                                               const LengthSettings& s, int reference) {
+    const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
+    const int anchor_length = reference > 0 ? reference : top;
+    std::vector<PairLengths> out(requests.size());
+    for (std::size_t k = 0; k < requests.size(); ++k) {
+        out[k].a = requests[k].a;
+        out[k].b = requests[k].b;
+        out[k].method = "board";
+        out[k].by_length.assign(top + 1, LengthOutcome{});
+    }
+    DuelSettings ds;
+    ds.want_median = false;
+    const std::size_t n = options.size();
+    bool stopped = false;
+    for (const int len : lengths) {
+        if (s.cancel && s.cancel->load()) {
+            stopped = true;
+            break;
+        }
+        // Every option, whichever pairs are asked: duel_matrix shares one series
+        // per option between pairs, so a pair's numbers would otherwise depend on
+        // its company (and a resumed hunt would differ from an uninterrupted one).
+        const Board board = make_board(len, rule, anchored_jumps(jumps, anchor, anchor_length, len));
+        std::vector<Chain> chains;
+        chains.reserve(n);
+        for (const auto& o : options) chains.push_back(build_chain(board, o));
+        const std::vector<DuelResult> m = duel_matrix(chains, order, ds, s.threads);
+        for (std::size_t k = 0; k < requests.size(); ++k) {
+            const DuelResult& r = m[requests[k].a * n + requests[k].b];
+            LengthOutcome& o = out[k].by_length[len];
+            o.win = static_cast<double>(r.p_a_wins);
+            o.loss = static_cast<double>(r.p_b_wins);
+            o.tie = static_cast<double>(r.p_tie);
+            o.neither = static_cast<double>(r.p_neither);
+            o.bound = static_cast<double>(r.bound) + 2 * lengths_engine::unit_d;  // rounded to double here
+            if (!r.bound_proven || !r.target_met) o.bound = std::numeric_limits<double>::infinity();
+        }
+    }
+    for (auto& p : out) p.done = !stopped;
+    return out;
+}
 
+}  // namespace overshoot

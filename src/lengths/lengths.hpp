@@ -67,11 +67,23 @@ enum class JumpAnchor { start, finish };
 std::vector<Jump> anchored_jumps(const std::vector<Jump>& jumps, JumpAnchor anchor, int reference, int length);
 
 // Board by board: for each listed length, duel() of every requested pair on the
-// board with the anchored jumps, lengths spread over threads.
+// board with the anchored jumps, lengths spread over threads. The jumps are
+// given on the board of length `reference` (0: the longest listed length; a
+// hunt's block of lengths passes the longest of the whole hunt).
 std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Overshoot rule, Order order,
                                         const std::vector<Jump>& jumps, JumpAnchor anchor,
                                         const std::vector<int>& lengths, const std::vector<PairRequest>& pairs,
-                                        const LengthSettings& settings = {});
+                                        const LengthSettings& settings = {}, int reference = 0);
+
+// The same through duel_matrix, one length at a time (its threads inside):
+// every option's series is run once per length and shared by all pairs, which
+// is far cheaper when many pairs share a board (a hunt on a board with jumps).
+// Every option is raced whatever pairs are asked, so a pair's numbers do not
+// depend on the request.
+std::vector<PairLengths> board_by_board_matrix(const std::vector<Option>& options, Overshoot rule, Order order,
+                                               const std::vector<Jump>& jumps, JumpAnchor anchor,
+                                               const std::vector<int>& lengths, const std::vector<PairRequest>& pairs,
+                                               const LengthSettings& settings = {}, int reference = 0);
 
 JumpAnchor parse_anchor(std::string_view text);
 

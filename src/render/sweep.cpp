@@ -51,19 +51,19 @@ std::string grid_text(const LengthGrid& g) {
                        : fmt::format("lengths {}..{} step {}", g.lo, g.hi, g.step);
 }
 
-std::string jumps_text(const SweepResult& r) {
-    if (r.jumps.empty()) return "no jumps";
+std::string jumps_text(const std::vector<Jump>& jumps, JumpAnchor anchor, const LengthGrid& grid) {
+    if (jumps.empty()) return "no jumps";
     std::string s = "jumps";
-    for (const Jump& j : r.jumps) s += fmt::format(" {}:{}", j.from, j.to);
-    s += r.anchor == JumpAnchor::start ? " (anchored to the start)"
-                                       : fmt::format(" (anchored to the finish of length {})", r.grid.hi);
+    for (const Jump& j : jumps) s += fmt::format(" {}:{}", j.from, j.to);
+    s += anchor == JumpAnchor::start ? " (anchored to the start)"
+                                     : fmt::format(" (anchored to the finish of length {})", grid.lengths().back());
     return s;
 }
 
 }  // namespace
 
 std::string sweep_text(const SweepResult& r) {
-    std::string out = fmt::format("sweep of {} options over {}, {}\n", r.options.size(), grid_text(r.grid), jumps_text(r));
+    std::string out = fmt::format("sweep of {} options over {}, {}\n", r.options.size(), grid_text(r.grid), jumps_text(r.jumps, r.anchor, r.grid));
     for (const auto& vs : r.variants) {
         out += fmt::format("\n{}\n", variant_text(vs.variant));
         std::string methods;
@@ -224,6 +224,10 @@ std::string hunt_text(const HuntResult& r, const HuntSpec& spec) {
     for (std::size_t v = 0; v < spec.variants.size(); ++v)
         out += fmt::format("{}{}", v == 0 ? "; " : " | ", variant_text(spec.variants[v]));
     out += "\n";
+    if (!spec.jumps.empty()) out += jumps_text(spec.jumps, spec.anchor, spec.grid) + "\n";
+    if (spec.merged_options > 0)
+        out += fmt::format("{} more option{} of the family equal as distributions to earlier ones merged into them\n",
+                           spec.merged_options, spec.merged_options == 1 ? "" : "s");
     if (spec.min_strength > 0) out += fmt::format("minimum strength {}\n", points(spec.min_strength));
     if (spec.required) out += fmt::format("every set contains {}\n", spec.options[*spec.required].name);
     if (!r.complete)
@@ -261,6 +265,11 @@ json hunt_json(const HuntResult& r, const HuntSpec& spec) {
     for (const auto& v : spec.variants)
         vars.push_back({{"overshoot", std::string(to_string(v.rule))}, {"order", std::string(to_string(v.order))}});
     j["variants"] = vars;
+    json jumps = json::array();
+    for (const Jump& jp : spec.jumps) jumps.push_back({jp.from, jp.to});
+    j["jumps"] = jumps;
+    j["anchor"] = spec.anchor == JumpAnchor::start ? "start" : "finish";
+    j["merged_options"] = spec.merged_options;
     j["cycle_length"] = spec.cycle_length;
     j["min_strength"] = spec.min_strength;
     j["required"] = spec.required ? json(spec.options[*spec.required].name) : json(nullptr);

@@ -34,8 +34,8 @@ import time
 BINARY, MPIEXEC = sys.argv[1], sys.argv[2]
 ENV = dict(os.environ, OMPI_ALLOW_RUN_AS_ROOT="1", OMPI_ALLOW_RUN_AS_ROOT_CONFIRM="1",
            OMPI_MCA_rmaps_base_oversubscribe="1")
-SHORT = ["hunt", "1..3d{4,6,8}", "--lengths", "10..180", "--overshoot", "stay,bounce,pass", "--threads", "1"]
-LONG = ["hunt", "1..5d{4,6,8,10}", "--lengths", "10..1800", "--threads", "1", "--json"]
+SHORT = ["hunt", "dice(count=1..3, sides=4,6,8)", "--lengths", "10..180", "--overshoot", "stay,bounce,pass", "--threads", "1"]
+LONG = ["hunt", "dice(count=1..5, sides=4,6,8,10)", "--lengths", "10..1800", "--threads", "1", "--json"]
 
 
 def fail(msg):
@@ -78,6 +78,28 @@ def same_output(d):
             if out != ref:
                 fail(f"-np {np} {' '.join(fmt)}: output differs from the plain run")
             print(f"-np {np} {' '.join(fmt) or '(text)'}: {len(out)} bytes, identical to the plain run")
+
+
+# A board with jumps (board by board, in blocks of lengths), anchored to the
+# finish, with a custom-dice family: the same bytes from every rank count.
+JUMPS = ["hunt", "dice(count=1..3, sides=4,6); custom(faces=3, values=0..5, sum=7)", "--lengths", "12..60",
+         "--jump", "40:47,55:30", "--anchor", "finish", "--order", "simultaneous,coin", "--threads", "1", "--json"]
+
+
+def same_output_with_jumps(d):
+    st, ref, err = run([BINARY] + JUMPS, d)
+    if st != 0:
+        fail(f"plain run with jumps: exit {st}: {err}")
+    doc = json.loads(ref)
+    if not doc["complete"] or doc["jumps"] != [[40, 47], [55, 30]] or not doc["cycles"]:
+        fail("the hunt with jumps should be complete, carry its jumps and find cycles")
+    for np in (2, 3):
+        st, out, err = run(mpi(np, JUMPS), d)
+        if st != 0:
+            fail(f"-np {np} with jumps: exit {st}: {err}")
+        if out != ref:
+            fail(f"-np {np} with jumps: output differs from the plain run")
+        print(f"-np {np} with jumps: {len(out)} bytes, identical to the plain run")
 
 
 def plan_only(d):
@@ -176,16 +198,16 @@ def errors(d):
     """Bad input: one line, once. A rank that fails: its line, the whole job ends, no output."""
     # A bad argument, a bad family and a bad board: each said once, by rank 0.
     for args, line in [
-            (["hunt", "1..3d{4,6}", "--lengths", "10..20", "--cycle-length", "2"],
+            (["hunt", "dice(count=1..3, sides=4,6)", "--lengths", "10..20", "--cycle-length", "2"],
              "overshoot: error: --cycle-length 2 is outside 3..1000 (see --help)"),
             (["hunt", "1..3q{4,6}", "--lengths", "10..20"], None),
-            (["hunt", "1..3d{4,6}", "--lengths", "10..20", "--require", "nosuch"], None)]:
+            (["hunt", "dice(count=1..3, sides=4,6)", "--lengths", "10..20", "--require", "nosuch"], None)]:
         st, _, err = run(mpi(2, args), d)
         lines = [l for l in err.splitlines() if l.startswith("overshoot:")]
         if st == 0 or len(lines) != 1 or (line is not None and lines[0] != line):
             fail(f"bad input under 2 ranks ({' '.join(args)}): exit {st}, lines {lines}")
     out = os.path.join(d, "limit.txt")
-    st, _, err = run(mpi(2, ["hunt", "1..6d{4,20}", "--lengths", "10..2000", "--memory-limit", "2",
+    st, _, err = run(mpi(2, ["hunt", "dice(count=1..6, sides=4,20)", "--lengths", "10..2000", "--memory-limit", "2",
                              "--threads", "1", "--output", out]), d)
     if st == 0 or "overshoot: error: rank" not in err or "memory limit" not in err:
         fail(f"a rank over its memory limit: exit {st}, stderr {err!r}")
@@ -197,6 +219,7 @@ def errors(d):
 def main():
     with tempfile.TemporaryDirectory(prefix="overshoot-mpi-") as d:
         same_output(d)
+        same_output_with_jumps(d)
         plan_only(d)
         errors(d)
         kill_and_resume(d)

@@ -16,7 +16,7 @@ import tempfile
 import time
 
 BIN = sys.argv[1]
-ARGS = ["hunt", "1..4d{4,6,8,10}", "--lengths", "10..700", "--threads", "2"]
+ARGS = ["hunt", "dice(count=1..4, sides=4,6,8,10)", "--lengths", "10..700", "--threads", "2"]
 failures = 0
 
 
