@@ -34,6 +34,7 @@ void add_variant_flags(CLI::App& cmd, std::vector<std::string>& rules, std::vect
                        const char* order_help);
 std::vector<Variant> variants_from(const std::vector<std::string>& rules, const std::vector<std::string>& orders,
                                    Overshoot default_rule, Order default_order);
+CLI::Option* add_jump_flags(CLI::App& cmd, std::vector<std::string>& jumps, std::string& anchor, const char* jump_help);
 
 namespace {
 
@@ -281,15 +282,9 @@ const Registration reg(70, [](CLI::App& app) {
     cmd->add_option("--length", args->length, "one length (as --lengths N)")
         ->check(whole_in(1, limits::max_length))
         ->excludes(lengths);
-    args->jump_option = cmd->add_option("--jump", args->jumps,
-                                        "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO "
-                                        "(replaces the scenario's jumps)")
-                            ->allow_extra_args(false)
-                            ->delimiter(',');
-    cmd->add_option("--anchor", args->anchor,
-                    "jumps stay at the same squares from the start (start) or the same distance from the finish "
-                    "(finish)")
-        ->check(one_of({"start", "finish"}));
+    args->jump_option = add_jump_flags(*cmd, args->jumps, args->anchor,
+                                       "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO "
+                                       "(replaces the scenario's jumps)");
     cmd->add_option("--scenario", args->scenario,
                     "a TOML scenario file: its board (length, rule, jumps, order) and, with no family given, its "
                     "options (flags override it)");

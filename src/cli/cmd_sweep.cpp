@@ -28,6 +28,16 @@ void add_variant_flags(CLI::App& cmd, std::vector<std::string>& rules, std::vect
         ->check(one_of({"simultaneous", "a-first", "b-first", "coin"}));
 }
 
+// --jump (on the longest board, one value per flag or a comma list) and --anchor.
+CLI::Option* add_jump_flags(CLI::App& cmd, std::vector<std::string>& jumps, std::string& anchor, const char* jump_help) {
+    CLI::Option* jump = cmd.add_option("--jump", jumps, jump_help)->allow_extra_args(false)->delimiter(',');
+    cmd.add_option("--anchor", anchor,
+                   "jumps stay at the same squares from the start (start) or the same distance from the finish "
+                   "(finish)")
+        ->check(one_of({"start", "finish"}));
+    return jump;
+}
+
 // The rule variants: every overshoot rule with every order, rules outer.
 std::vector<Variant> variants_from(const std::vector<std::string>& rules, const std::vector<std::string>& orders,
                                    Overshoot default_rule, Order default_order) {
@@ -109,14 +119,8 @@ const Registration reg(60, [](CLI::App& app) {
     add_variant_flags(*cmd, args->rules, args->orders,
                       "turn order(s): simultaneous, coin (a-first, b-first for exactly two options); repeat the flag "
                       "or comma-separate");
-    args->jump_option = cmd->add_option("--jump", args->jumps,
-                                        "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO")
-                            ->allow_extra_args(false)
-                            ->delimiter(',');
-    cmd->add_option("--anchor", args->anchor,
-                    "jumps stay at the same squares from the start (start) or the same distance from the finish "
-                    "(finish)")
-        ->check(one_of({"start", "finish"}));
+    args->jump_option = add_jump_flags(*cmd, args->jumps, args->anchor,
+                                       "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO");
     cmd->add_option("--scenario", args->scenario, "a TOML scenario file (flags override it)");
     add_output_flags(*cmd, args->out, {"text", "json", "csv"});
     cmd->add_option("--method", args->method, "all-lengths method: auto, series or pairs (docs/sweep.md)")

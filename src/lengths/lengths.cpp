@@ -160,12 +160,10 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
     return out;
 }
 
-std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Overshoot rule, Order order,
-                                        const std::vector<Jump>& jumps, JumpAnchor anchor,
-                                        const std::vector<int>& lengths, const std::vector<PairRequest>& requests,
-                                        const LengthSettings& s, int reference) {
-    const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
-    const int anchor_length = reference > 0 ? reference : top;
+namespace {
+
+// One result per requested pair, every length 0..top, computed board by board.
+std::vector<PairLengths> board_results(const std::vector<PairRequest>& requests, int top) {
     std::vector<PairLengths> out(requests.size());
     for (std::size_t k = 0; k < requests.size(); ++k) {
         out[k].a = requests[k].a;
@@ -173,6 +171,30 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
         out[k].method = "board";
         out[k].by_length.assign(top + 1, LengthOutcome{});
     }
+    return out;
+}
+
+LengthOutcome outcome_of(const DuelResult& r) {
+    LengthOutcome o;
+    o.win = static_cast<double>(r.p_a_wins);
+    o.loss = static_cast<double>(r.p_b_wins);
+    o.tie = static_cast<double>(r.p_tie);
+    o.neither = static_cast<double>(r.p_neither);
+    // Rounded to double here: widen the bound by that rounding.
+    o.bound = static_cast<double>(r.bound) + 2 * lengths_engine::unit_d;
+    if (!r.bound_proven || !r.target_met) o.bound = std::numeric_limits<double>::infinity();
+    return o;
+}
+
+}  // namespace
+
+std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Overshoot rule, Order order,
+                                        const std::vector<Jump>& jumps, JumpAnchor anchor,
+                                        const std::vector<int>& lengths, const std::vector<PairRequest>& requests,
+                                        const LengthSettings& s, int reference) {
+    const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
+    const int anchor_length = reference > 0 ? reference : top;
+    std::vector<PairLengths> out = board_results(requests, top);
     std::atomic<std::size_t> next{0};
     std::atomic<bool> stopped{false};
     std::exception_ptr failure;
@@ -197,15 +219,7 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
                             built[i] = 1;
                         }
                 for (std::size_t k = 0; k < requests.size(); ++k) {
-                    DuelResult r = duel(chains[requests[k].a], chains[requests[k].b], order, ds);
-                    LengthOutcome& o = out[k].by_length[len];
-                    o.win = static_cast<double>(r.p_a_wins);
-                    o.loss = static_cast<double>(r.p_b_wins);
-                    o.tie = static_cast<double>(r.p_tie);
-                    o.neither = static_cast<double>(r.p_neither);
-                    // Rounded to double here: widen the bound by that rounding.
-                    o.bound = static_cast<double>(r.bound) + 2 * lengths_engine::unit_d;
-                    if (!r.bound_proven || !r.target_met) o.bound = std::numeric_limits<double>::infinity();
+                    out[k].by_length[len] = outcome_of(duel(chains[requests[k].a], chains[requests[k].b], order, ds));
                 }
             }
         } catch (...) {
@@ -230,13 +244,7 @@ std::vector<PairLengths> board_by_board_matrix(const std::vector<Option>& option
                                                const LengthSettings& s, int reference) {
     const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
     const int anchor_length = reference > 0 ? reference : top;
-    std::vector<PairLengths> out(requests.size());
-    for (std::size_t k = 0; k < requests.size(); ++k) {
-        out[k].a = requests[k].a;
-        out[k].b = requests[k].b;
-        out[k].method = "board";
-        out[k].by_length.assign(top + 1, LengthOutcome{});
-    }
+    std::vector<PairLengths> out = board_results(requests, top);
     DuelSettings ds;
     ds.want_median = false;
     const std::size_t n = options.size();
@@ -255,14 +263,7 @@ std::vector<PairLengths> board_by_board_matrix(const std::vector<Option>& option
         for (const auto& o : options) chains.push_back(build_chain(board, o));
         const std::vector<DuelResult> m = duel_matrix(chains, order, ds, s.threads);
         for (std::size_t k = 0; k < requests.size(); ++k) {
-            const DuelResult& r = m[requests[k].a * n + requests[k].b];
-            LengthOutcome& o = out[k].by_length[len];
-            o.win = static_cast<double>(r.p_a_wins);
-            o.loss = static_cast<double>(r.p_b_wins);
-            o.tie = static_cast<double>(r.p_tie);
-            o.neither = static_cast<double>(r.p_neither);
-            o.bound = static_cast<double>(r.bound) + 2 * lengths_engine::unit_d;  // rounded to double here
-            if (!r.bound_proven || !r.target_met) o.bound = std::numeric_limits<double>::infinity();
+            out[k].by_length[len] = outcome_of(m[requests[k].a * n + requests[k].b]);
         }
     }
     for (auto& p : out) p.done = !stopped;
