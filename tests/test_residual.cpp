@@ -4,7 +4,6 @@
 // writer or checker; tests/scripts/check_residual.py repeats the comparison
 // with Python's fractions module.
 #include <catch2/catch.hpp>
-
 #include <nlohmann/json.hpp>
 #include <random>
 
@@ -15,7 +14,6 @@
 #include "core/limits.hpp"
 #include "race/exact.hpp"
 #include "render/certificate.hpp"
-
 #include "support.hpp"
 
 using namespace overshoot;
@@ -65,17 +63,19 @@ void each_duel(const std::vector<Board>& boards, const std::vector<Option>& o, F
                           describe(board, order) + ": " + o[i].name + " vs " + o[j].name);
 }
 
-CheckReport recheck(const std::string& text) { return check_certificate(parse_certificate(text, "test"), text, 2); }
+CheckReport recheck(const std::string& text) {
+    return check_certificate(parse_certificate(text, "test"), text, 2);
+}
 
 }  // namespace
 
-TEST_CASE("residual intervals enclose the exact elimination fractions on small general boards", "[residual]") {
+TEST_CASE("residual intervals enclose the exact elimination fractions on small general boards",
+          "[residual]") {
     // Source: exact elimination over the product chain (Bareiss fraction-free
     // Gaussian elimination), an independent exact solve.
-    const std::vector<Board> boards = {make_board(10, Overshoot::bounce, {{8, 2}}),
-                                       make_board(12, Overshoot::stay, {{9, 1}, {4, 7}}),
-                                       make_board(9, Overshoot::pass, {{7, 0}}),
-                                       make_board(11, Overshoot::bounce, {})};
+    const std::vector<Board> boards = {
+        make_board(10, Overshoot::bounce, {{8, 2}}), make_board(12, Overshoot::stay, {{9, 1}, {4, 7}}),
+        make_board(9, Overshoot::pass, {{7, 0}}), make_board(11, Overshoot::bounce, {})};
     const auto o = opts({"2d6", "[0,1,5]", "{2:3,5:1}"});
     int checked = 0;
     each_duel(boards, o, [&](Order order, const Chain& a, const Chain& b, const std::string& what) {
@@ -127,7 +127,8 @@ TEST_CASE("heavy options on a bounce board give residual intervals no wider than
     }
 }
 
-TEST_CASE("two slow options on a stay board with a backward jump: h near 10^4 and still 1e-15", "[residual]") {
+TEST_CASE("two slow options on a stay board with a backward jump: h near 10^4 and still 1e-15",
+          "[residual]") {
     // 4d12 against 5d12 on 40 squares: near the finish both need one exact sum
     // (5d12 at distance 5: one roll in 248,832), so the race lasts thousands of
     // rounds and the system is ill-conditioned; the writer adds digits.
@@ -291,7 +292,8 @@ TEST_CASE("exact lifting gives the exact elimination fractions, proven by substi
     });
 }
 
-TEST_CASE("a duel too large for a residual certificate keeps the floating engine's proven interval", "[residual]") {
+TEST_CASE("a duel too large for a residual certificate keeps the floating engine's proven interval",
+          "[residual]") {
     // A memory cap too small for the product chain of 60 squares: the writer
     // refuses, and the certificate says why beside the interval method.
     const Board board = make_board(60, Overshoot::bounce, {});

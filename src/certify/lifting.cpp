@@ -5,7 +5,6 @@
 #include "certify/lifting.hpp"
 
 #include <fmt/format.h>
-
 #include <gmpxx.h>
 
 #include "certify/modular.hpp"
@@ -131,7 +130,8 @@ std::optional<Part> lift_part(const ProductChain& c, std::string& why) {
             }
         }
         if (lu.factor()) break;
-        if (from > (u64{1} << 31) - (u64{1} << 19)) throw InternalError("exact lifting: no prime gave a regular matrix");
+        if (from > (u64{1} << 31) - (u64{1} << 19))
+            throw InternalError("exact lifting: no prime gave a regular matrix");
     }
     const mpz_class p(static_cast<unsigned long>(lu.p));
     // Digits in base p of y = A^{-1} b for each outcome, from integer residuals.
@@ -146,12 +146,14 @@ std::optional<Part> lift_part(const ProductChain& c, std::string& why) {
     std::vector<u64> z(m);
     for (long step = 1;; ++step) {
         for (int o = 0; o < 3; ++o) {
-            for (std::size_t i = 0; i < m; ++i) z[i] = mpz_fdiv_ui(r[o][i].get_mpz_t(), static_cast<unsigned long>(lu.p));
+            for (std::size_t i = 0; i < m; ++i)
+                z[i] = mpz_fdiv_ui(r[o][i].get_mpz_t(), static_cast<unsigned long>(lu.p));
             lu.solve(z);
             for (std::size_t i = 0; i < m; ++i) {
                 x[o][i] += pk * static_cast<unsigned long>(z[i]);
                 mpz_class t = full * static_cast<unsigned long>(z[i]);
-                for (auto k = c.row[i]; k < c.row[i + 1]; ++k) t -= w[k] * static_cast<unsigned long>(z[c.col[k]]);
+                for (auto k = c.row[i]; k < c.row[i + 1]; ++k)
+                    t -= w[k] * static_cast<unsigned long>(z[c.col[k]]);
                 r[o][i] -= t;
                 mpz_divexact(r[o][i].get_mpz_t(), r[o][i].get_mpz_t(), p.get_mpz_t());
             }

@@ -2,6 +2,8 @@
 // double precision, refined against exact 128-bit integer residuals until the
 // rounding of the last written digit dominates, and a bound on the expected
 // remaining rounds that satisfies h >= 1 + Q h exactly (docs/method.md).
+#include "certify/residual.hpp"
+
 #include <fmt/format.h>
 
 #include <Eigen/Sparse>
@@ -10,7 +12,6 @@
 #include <cmath>
 #include <deque>
 
-#include "certify/residual.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
 
@@ -18,19 +19,26 @@ namespace overshoot {
 
 std::string_view to_string(Mover m) {
     switch (m) {
-        case Mover::both: return "both";
-        case Mover::a: return "a";
-        case Mover::b: return "b";
+        case Mover::both:
+            return "both";
+        case Mover::a:
+            return "a";
+        case Mover::b:
+            return "b";
     }
     return "?";
 }
 
 std::vector<Mover> parts_of(Order order) {
     switch (order) {
-        case Order::simultaneous: return {Mover::both};
-        case Order::a_first: return {Mover::a};
-        case Order::b_first: return {Mover::b};
-        case Order::coin: return {Mover::a, Mover::b};
+        case Order::simultaneous:
+            return {Mover::both};
+        case Order::a_first:
+            return {Mover::a};
+        case Order::b_first:
+            return {Mover::b};
+        case Order::coin:
+            return {Mover::a, Mover::b};
     }
     return {};
 }
@@ -153,7 +161,8 @@ ProductChain build_product_chain(const Chain& A, const Chain& B, Mover first) {
 namespace {
 
 // full * x(s) - sum_t w(s,t) x(t) - scale * out(s): the residual times full * scale.
-std::vector<i128> residual(const ProductChain& p, const std::vector<i128>& x, const std::vector<u128>* out, i128 scale) {
+std::vector<i128> residual(const ProductChain& p, const std::vector<i128>& x, const std::vector<u128>* out,
+                           i128 scale) {
     std::vector<i128> r(x.size());
     for (std::size_t i = 0; i < x.size(); ++i) {
         i128 acc = static_cast<i128>(p.full) * x[i];
@@ -205,16 +214,19 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
     mat.makeCompressed();
     Eigen::SparseLU<Eigen::SparseMatrix<double>> lu;
     lu.compute(mat);
-    if (lu.info() != Eigen::Success) throw InternalError("residual certificate: the sparse LU of the product chain failed");
+    if (lu.info() != Eigen::Success)
+        throw InternalError("residual certificate: the sparse LU of the product chain failed");
     // Expected rounds, and the number of digits that makes the rounding of the
     // last digit (about 10^-D per state) times h at the start negligible.
     Eigen::VectorXd t = lu.solve(Eigen::VectorXd::Ones(static_cast<int>(m)));
     const int bits_full = bits(p.full);
-    const int h_bits = bits(static_cast<u128>(std::max(1.0, t.maxCoeff() * 4) * std::pow(10.0, kRoundsDigits)) + 1);
+    const int h_bits =
+        bits(static_cast<u128>(std::max(1.0, t.maxCoeff() * 4) * std::pow(10.0, kRoundsDigits)) + 1);
     if (bits_full + h_bits > 124)
-        throw LimitError(fmt::format("residual certificate: the options' denominators ({} bits together) are too large "
-                                     "for the writer's 128-bit residuals",
-                                     bits_full));
+        throw LimitError(
+            fmt::format("residual certificate: the options' denominators ({} bits together) are too large "
+                        "for the writer's 128-bit residuals",
+                        bits_full));
     const int d_max = static_cast<int>(std::floor((124 - bits_full) * 0.30102999566398));
     const int want = 18 + static_cast<int>(std::ceil(std::log10(std::max(1.0, t(0)))));
     const int digits = std::min(d_max, std::max(19, want));
@@ -227,7 +239,8 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
     for (long double delta = 2e-3L; delta < 1 && !ok; delta *= 8) {
         for (std::size_t i = 0; i < m; ++i)
             h[i] = static_cast<i128>(std::ceil((1 + delta) * std::max(1.0L, static_cast<long double>(t(i))) *
-                                               static_cast<long double>(hscale))) + 1;
+                                               static_cast<long double>(hscale))) +
+                   1;
         std::vector<i128> r = residual(p, h, nullptr, 0);
         ok = std::all_of(r.begin(), r.end(), [&](i128 v) { return v >= static_cast<i128>(p.full) * hscale; });
     }
@@ -241,22 +254,25 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
     std::vector<i128> res[3];
     for (int c = 0; c < vectors; ++c) {
         Eigen::VectorXd rhs(static_cast<int>(m));
-        for (std::size_t i = 0; i < m; ++i) rhs(static_cast<int>(i)) = static_cast<double>(p.out[c][i]) / full_d;
+        for (std::size_t i = 0; i < m; ++i)
+            rhs(static_cast<int>(i)) = static_cast<double>(p.out[c][i]) / full_d;
         Eigen::VectorXd x = lu.solve(rhs);
         std::vector<i128> X(m);
         for (std::size_t i = 0; i < m; ++i)
-            X[i] = static_cast<i128>(std::round(std::clamp(static_cast<long double>(x(static_cast<int>(i))), 0.0L, 1.0L) * scale_ld));
+            X[i] = static_cast<i128>(std::round(
+                std::clamp(static_cast<long double>(x(static_cast<int>(i))), 0.0L, 1.0L) * scale_ld));
         std::vector<i128> r = residual(p, X, &p.out[c], scale);
         i128 prev = max_abs(r);
         for (int it = 0; it < 12 && prev > 2 * static_cast<i128>(p.full); ++it) {
             Eigen::VectorXd rho(static_cast<int>(m));
             for (std::size_t i = 0; i < m; ++i)
-                rho(static_cast<int>(i)) =
-                    static_cast<double>(static_cast<long double>(r[i]) / static_cast<long double>(p.full) / scale_ld);
+                rho(static_cast<int>(i)) = static_cast<double>(static_cast<long double>(r[i]) /
+                                                               static_cast<long double>(p.full) / scale_ld);
             Eigen::VectorXd d = lu.solve(rho);
             std::vector<i128> Y(m);
             for (std::size_t i = 0; i < m; ++i) {
-                i128 y = X[i] - static_cast<i128>(std::round(static_cast<long double>(d(static_cast<int>(i))) * scale_ld));
+                i128 y = X[i] - static_cast<i128>(
+                                    std::round(static_cast<long double>(d(static_cast<int>(i))) * scale_ld));
                 Y[i] = std::clamp(y, static_cast<i128>(0), scale);
             }
             std::vector<i128> ry = residual(p, Y, &p.out[c], scale);
@@ -267,7 +283,9 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
             r.swap(ry);
             prev = now;
         }
-        std::vector<mpz_class>& dst = c == 0 ? out.part.p_a_wins : c == 1 ? out.part.p_b_wins : out.part.p_tie;
+        std::vector<mpz_class>& dst = c == 0   ? out.part.p_a_wins
+                                      : c == 1 ? out.part.p_b_wins
+                                               : out.part.p_tie;
         dst.resize(m);
         for (std::size_t i = 0; i < m; ++i) dst[i] = to_mpz(X[i]);
         out.x0[c] = X[0];
@@ -308,7 +326,8 @@ ResidualWriting write_residual(const Chain& a, const Chain& b, Order order) {
             for (int c = 0; c < 3; ++c) centre[c] = mpq_class(to_mpz(v.x0[c]), scale);
             centre[3] = 1 - centre[0] - centre[1] - centre[2];
             centre[4] = centre[0] - centre[1];
-            const mpz_class den = to_mpz(static_cast<i128>(v.full)) * scale * to_mpz(pow10_i128(kRoundsDigits));
+            const mpz_class den =
+                to_mpz(static_cast<i128>(v.full)) * scale * to_mpz(pow10_i128(kRoundsDigits));
             for (int c = 0; c < 5; ++c) radius[c] = mpq_class(to_mpz(v.max_r[c]) * to_mpz(v.h0), den);
             for (int c = 0; c < 5; ++c) {
                 centre[c].canonicalize();
@@ -331,7 +350,8 @@ ResidualWriting write_residual(const Chain& a, const Chain& b, Order order) {
 std::string scaled_decimal(const mpz_class& value, int digits) {
     if (value < 0) throw InternalError("scaled_decimal: a negative value");
     std::string s = value.get_str();
-    if (static_cast<int>(s.size()) <= digits) s.insert(0, static_cast<std::size_t>(digits + 1) - s.size(), '0');
+    if (static_cast<int>(s.size()) <= digits)
+        s.insert(0, static_cast<std::size_t>(digits + 1) - s.size(), '0');
     if (digits > 0) s.insert(s.size() - static_cast<std::size_t>(digits), ".");
     return s;
 }
@@ -340,8 +360,8 @@ mpz_class parse_scaled_decimal(const std::string& text, int digits, const std::s
     const auto dot = text.find('.');
     const std::size_t frac = dot == std::string::npos ? 0 : text.size() - dot - 1;
     const std::string whole = text.substr(0, dot == std::string::npos ? text.size() : dot);
-    bool ok = !whole.empty() && static_cast<int>(frac) == digits && (digits > 0 || dot == std::string::npos) &&
-              whole.size() <= 40;
+    bool ok = !whole.empty() && static_cast<int>(frac) == digits &&
+              (digits > 0 || dot == std::string::npos) && whole.size() <= 40;
     std::string d = whole + (dot == std::string::npos ? "" : text.substr(dot + 1));
     for (char c : d) ok = ok && c >= '0' && c <= '9';
     if (!ok)

@@ -31,7 +31,7 @@ std::vector<Mover> parts_of(Order order);
 struct ResidualPart {
     Mover first = Mover::both;
     int digits = 0;
-    std::vector<std::pair<int, int>> states;  // increasing (a, then b)
+    std::vector<std::pair<int, int>> states;           // increasing (a, then b)
     std::vector<mpz_class> p_a_wins, p_b_wins, p_tie;  // p_tie empty unless first == both
     std::vector<mpz_class> rounds;
 };

@@ -35,9 +35,12 @@ std::vector<char> can_finish(const Chain& c) {
 // move does not matter (its weights sum to its denominator).
 int outcome(Mover first, bool fa, bool fb) {
     switch (first) {
-        case Mover::both: return fa && fb ? 2 : fa ? 0 : fb ? 1 : 3;
-        case Mover::a: return fa ? 0 : fb ? 1 : 3;
-        case Mover::b: return fb ? 1 : fa ? 0 : 3;
+        case Mover::both:
+            return fa && fb ? 2 : fa ? 0 : fb ? 1 : 3;
+        case Mover::a:
+            return fa ? 0 : fb ? 1 : 3;
+        case Mover::b:
+            return fb ? 1 : fa ? 0 : 3;
     }
     return 3;
 }
@@ -47,8 +50,8 @@ struct Fail {
 };
 
 // Checks one part; returns the centres and radii of its start state.
-void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, const Chain& B, mpq_class centre[5],
-                mpq_class radius[5]) {
+void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, const Chain& B,
+                mpq_class centre[5], mpq_class radius[5]) {
     const int n = A.length;
     const std::size_t m = part.states.size();
     const bool ties = part.first == Mover::both;
@@ -80,7 +83,8 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
         todo.pop_back();
         ++reached;
         if (at(a, b) < 0)
-            throw Fail{fmt::format("state ({}, {}) is live and reachable from the start but has no values", a, b)};
+            throw Fail{
+                fmt::format("state ({}, {}) is live and reachable from the start but has no values", a, b)};
         for (auto ka = A.row_start[a]; ka < A.row_start[a + 1]; ++ka)
             for (auto kb = B.row_start[b]; kb < B.row_start[b + 1]; ++kb) {
                 const int da = A.dest[ka], db = B.dest[kb];
@@ -95,15 +99,17 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
     if (reached != m) {
         for (const auto& s : part.states)
             if (!seen[static_cast<std::size_t>(s.first) * n + s.second])
-                throw Fail{fmt::format("state ({}, {}) is listed but is not a live state reachable from the start",
-                                       s.first, s.second)};
+                throw Fail{
+                    fmt::format("state ({}, {}) is listed but is not a live state reachable from the start",
+                                s.first, s.second)};
     }
     if (m == 0) {
         centre[3] = 1;  // the race never ends
         return;
     }
     // Residuals times full * 10^D, exactly; the rounds bound h >= 1 + Q h.
-    const mpz_class full = mpz_class(static_cast<unsigned long>(A.denominator)) * static_cast<unsigned long>(B.denominator);
+    const mpz_class full =
+        mpz_class(static_cast<unsigned long>(A.denominator)) * static_cast<unsigned long>(B.denominator);
     mpz_class scale, hscale;
     mpz_ui_pow_ui(scale.get_mpz_t(), 10, static_cast<unsigned long>(part.digits));
     mpz_ui_pow_ui(hscale.get_mpz_t(), 10, static_cast<unsigned long>(rounds_digits));
@@ -113,7 +119,8 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
     const mpz_class zero = 0;
     for (std::size_t i = 0; i < m; ++i) {
         const auto [a, b] = part.states[i];
-        const mpz_class* x[4] = {&part.p_a_wins[i], &part.p_b_wins[i], ties ? &part.p_tie[i] : &zero, &part.rounds[i]};
+        const mpz_class* x[4] = {&part.p_a_wins[i], &part.p_b_wins[i], ties ? &part.p_tie[i] : &zero,
+                                 &part.rounds[i]};
         for (int c = 0; c < 4; ++c) acc[c] = full * *x[c];
         for (int c = 0; c < 3; ++c) won[c] = 0;
         for (auto ka = A.row_start[a]; ka < A.row_start[a + 1]; ++ka)
@@ -134,8 +141,7 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
                 acc[3] -= w * part.rounds[j];
             }
         for (int c = 0; c < 3; ++c) acc[c] -= scale * won[c];
-        if (acc[3] < one_round)
-            throw Fail{fmt::format("rounds: h >= 1 + Q h fails at state ({}, {})", a, b)};
+        if (acc[3] < one_round) throw Fail{fmt::format("rounds: h >= 1 + Q h fails at state ({}, {})", a, b)};
         const mpz_class margin = acc[0] - acc[1], neither = acc[0] + acc[1] + acc[2];
         const mpz_class* r[5] = {&acc[0], &acc[1], &acc[2], &neither, &margin};
         for (int c = 0; c < 5; ++c)
@@ -161,13 +167,14 @@ std::string check_residual(const ResidualProof& proof, const Chain& a, const Cha
                            ResidualBounds& bounds) {
     const std::vector<Mover> want = parts_of(order);
     if (proof.parts.size() != want.size())
-        return fmt::format("the turn order {} needs {} part(s), not {}", to_string(order), want.size(), proof.parts.size());
+        return fmt::format("the turn order {} needs {} part(s), not {}", to_string(order), want.size(),
+                           proof.parts.size());
     bounds = ResidualBounds{};
     for (std::size_t k = 0; k < want.size(); ++k) {
         const ResidualPart& part = proof.parts[k];
         if (part.first != want[k])
-            return fmt::format("part {}: first mover '{}' does not fit the turn order {}", k + 1, to_string(part.first),
-                               to_string(order));
+            return fmt::format("part {}: first mover '{}' does not fit the turn order {}", k + 1,
+                               to_string(part.first), to_string(order));
         mpq_class centre[5], radius[5];
         try {
             check_part(part, proof.rounds_digits, a, b, centre, radius);
