@@ -148,9 +148,9 @@ TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks",
                 for (std::size_t k = sh.first; k < sh.first + sh.count; ++k)
                     covered[store.slot(sh.variant, p.a, p.b) * store.length_count + k]++;
             if (sh.variant == 0)
-                REQUIRE((sh.method == "series" || sh.method == "pairs"));
+                REQUIRE((sh.method == LengthMethod::series || sh.method == LengthMethod::pairs));
             else
-                REQUIRE(sh.method == "board");
+                REQUIRE(sh.method == LengthMethod::board);
         }
         for (std::size_t v = 0; v < store.variant_count; ++v)
             for (std::size_t a = 0; a < store.option_count; ++a)

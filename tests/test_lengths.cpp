@@ -41,12 +41,12 @@ std::vector<PairRequest> all_pairs(std::size_t n) {
 // |sweep figure - duel figure| must be within the sum of both proven bounds.
 void require_agrees(const LengthOutcome& o, const DuelResult& r, const std::string& what) {
     const double allowed = o.bound + static_cast<double>(r.bound) + 1e-15;
-    INFO(what << " win " << o.win << " vs " << static_cast<double>(r.p_a_wins) << " loss " << o.loss << " vs "
+    INFO(what << " win " << o.p_a_wins << " vs " << static_cast<double>(r.p_a_wins) << " loss " << o.p_b_wins << " vs "
               << static_cast<double>(r.p_b_wins) << " bounds " << o.bound << " + " << static_cast<double>(r.bound));
-    REQUIRE(std::fabs(o.win - static_cast<double>(r.p_a_wins)) <= allowed);
-    REQUIRE(std::fabs(o.loss - static_cast<double>(r.p_b_wins)) <= allowed);
-    REQUIRE(std::fabs(o.tie - static_cast<double>(r.p_tie)) <= allowed);
-    REQUIRE(std::fabs(o.neither - static_cast<double>(r.p_neither)) <= allowed);
+    REQUIRE(std::fabs(o.p_a_wins - static_cast<double>(r.p_a_wins)) <= allowed);
+    REQUIRE(std::fabs(o.p_b_wins - static_cast<double>(r.p_b_wins)) <= allowed);
+    REQUIRE(std::fabs(o.p_tie - static_cast<double>(r.p_tie)) <= allowed);
+    REQUIRE(std::fabs(o.p_neither - static_cast<double>(r.p_neither)) <= allowed);
     REQUIRE(o.bound < 1e-9);
 }
 
@@ -106,7 +106,7 @@ TEST_CASE("heavy options: the series closes stuck and lingering pieces exactly",
             DuelSettings ds;
             ds.want_median = false;
             require_agrees(p.by_length[len], duel(ca, cb, Order::simultaneous, ds),
-                           o[p.a].name + " vs " + o[p.b].name + " at " + std::to_string(len) + " by " + p.method);
+                           o[p.a].name + " vs " + o[p.b].name + " at " + std::to_string(len) + " by " + std::string(to_string(p.method)));
         }
     }
 }
@@ -122,8 +122,8 @@ TEST_CASE("the engine gives the same bits whatever the thread count", "[lengths]
     for (std::size_t k = 0; k < a.size(); ++k) {
         REQUIRE(a[k].method == b[k].method);
         for (int d = 1; d <= 300; ++d) {
-            REQUIRE(a[k].by_length[d].win == b[k].by_length[d].win);
-            REQUIRE(a[k].by_length[d].loss == b[k].by_length[d].loss);
+            REQUIRE(a[k].by_length[d].p_a_wins == b[k].by_length[d].p_a_wins);
+            REQUIRE(a[k].by_length[d].p_b_wins == b[k].by_length[d].p_b_wins);
             REQUIRE(a[k].by_length[d].bound == b[k].by_length[d].bound);
         }
     }

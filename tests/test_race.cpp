@@ -14,6 +14,8 @@
 #include "core/error.hpp"
 #include "core/option.hpp"
 #include "race/duel.hpp"
+#include "race/outcome.hpp"
+#include "render/document.hpp"
 
 using namespace overshoot;
 
@@ -158,7 +160,7 @@ TEST_CASE("series, product chain and pair programme agree on 240 random small bo
             }
         if (board.forward_only()) ++forward;
         for (Order order : kOrders) {
-            INFO(sa << " vs " << sb << ", " << describe(board, order));
+            INFO(sa << " vs " << sb << ", " << render::describe(board, order));
             auto settings = [](DuelMethod m) { return DuelSettings{.method = m, .want_median = false}; };
             DuelResult product = duel(a, b, order, settings(DuelMethod::product));
             DuelResult series = duel(a, b, order, settings(DuelMethod::series));
@@ -223,7 +225,7 @@ TEST_CASE("end zone, pairs, series and product agree on 45 random medium boards"
         Chain b = build_chain(board, parse_option(sb));
         auto settings = [](DuelMethod m) { return DuelSettings{.method = m, .want_median = false}; };
         for (Order order : kOrders) {
-            INFO(sa << " vs " << sb << ", " << describe(board, order));
+            INFO(sa << " vs " << sb << ", " << render::describe(board, order));
             DuelResult product = duel(a, b, order, settings(DuelMethod::product));
             DuelResult series = duel(a, b, order, settings(DuelMethod::series));
             CHECK(diff(series, product) <= 1e-12);
@@ -358,4 +360,14 @@ TEST_CASE("duel_matrix matches single duels and does not depend on the thread co
                 CHECK(diff(x, duel(chains[i], chains[j], order)) <= 1e-13);
             }
     }
+}
+
+TEST_CASE("outcome: a pair is decided only beyond its bound, never at it", "[race]") {
+    CHECK(decided(0.2, 0.1) == 1);
+    CHECK(decided(-0.2, 0.1) == -1);
+    CHECK(decided(0.1, 0.1) == 0);
+    CHECK(decided(-0.1, 0.1) == 0);
+    CHECK(decided(0.0, 0.0) == 0);
+    // The bound of a margin rounded to double is wider than the probabilities' bound.
+    CHECK(rounded_margin_bound(0.0) > 0.0);
 }

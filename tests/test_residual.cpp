@@ -14,6 +14,7 @@
 #include "core/limits.hpp"
 #include "race/exact.hpp"
 #include "render/certificate.hpp"
+#include "render/document.hpp"
 #include "support.hpp"
 
 using namespace overshoot;
@@ -60,7 +61,7 @@ void each_duel(const std::vector<Board>& boards, const std::vector<Option>& o, F
                 for (std::size_t j = 0; j < o.size(); ++j)
                     if (i != j)
                         f(order, build_chain(board, o[i]), build_chain(board, o[j]),
-                          describe(board, order) + ": " + o[i].name + " vs " + o[j].name);
+                          render::describe(board, order) + ": " + o[i].name + " vs " + o[j].name);
 }
 
 CheckReport recheck(const std::string& text) {

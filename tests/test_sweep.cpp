@@ -108,9 +108,9 @@ TEST_CASE("sweeps with jumps go board by board with anchored jumps", "[sweep]") 
                 ds.method = DuelMethod::product;  // an independent method (sparse LU)
                 DuelResult d = duel(ca, cb, vs.variant.order, ds);
                 const LengthOutcome& o = vs.pairs[0].at[idx];
-                REQUIRE(vs.pairs[0].method == "board");
-                REQUIRE(std::fabs(o.win - static_cast<double>(d.p_a_wins)) <= o.bound + static_cast<double>(d.bound));
-                REQUIRE(std::fabs(o.loss - static_cast<double>(d.p_b_wins)) <= o.bound + static_cast<double>(d.bound));
+                REQUIRE(vs.pairs[0].method == LengthMethod::board);
+                REQUIRE(std::fabs(o.p_a_wins - static_cast<double>(d.p_a_wins)) <= o.bound + static_cast<double>(d.bound));
+                REQUIRE(std::fabs(o.p_b_wins - static_cast<double>(d.p_b_wins)) <= o.bound + static_cast<double>(d.bound));
             }
         }
     }

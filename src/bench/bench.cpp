@@ -10,6 +10,7 @@
 #include "core/option.hpp"
 #include "race/duel.hpp"
 #include "core/fraction.hpp"
+#include "core/hash.hpp"
 #include "race/exact.hpp"
 #include "race/several_pieces.hpp"
 #include "sweep/sweep.hpp"
@@ -18,14 +19,6 @@
 namespace overshoot {
 
 namespace {
-
-std::uint64_t fnv1a(std::uint64_t h, const std::string& s) {
-    for (unsigned char c : s) {
-        h ^= c;
-        h *= 1099511628211ULL;
-    }
-    return h;
-}
 
 std::string digits(double x) { return fmt::format("{:.12g}", x); }
 
@@ -38,7 +31,7 @@ std::string duel_digest(const DuelResult& r) {
 
 BenchReport run_bench() {
     BenchReport rep;
-    rep.signature = 1469598103934665603ULL;
+    rep.signature = fnv_offset_basis;
     auto timed = [&](const std::string& name, const std::function<std::string()>& f) {
         auto t0 = std::chrono::steady_clock::now();
         std::string res = f();
@@ -104,7 +97,7 @@ BenchReport run_bench() {
                                  Order::simultaneous);
         // The fractions run to hundreds of digits: digest them, keep the decimals readable.
         return fmt::format("{} {:016x}", decimal_string(e.p_a_wins, 12),
-                           fnv1a(1469598103934665603ULL, fraction_string(e.p_a_wins) + fraction_string(e.p_tie)));
+                           fnv1a(fnv_offset_basis, fraction_string(e.p_a_wins) + fraction_string(e.p_tie)));
     });
     timed("tournament NdS N 1..5 S 2..11 on 1000", [&] {
         Board board = make_board(1000, Overshoot::stay, {});

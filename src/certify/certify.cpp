@@ -3,7 +3,6 @@
 
 #include <cmath>
 #include <map>
-#include <set>
 
 #include "certify/certificate.hpp"
 #include "certify/lifting.hpp"
@@ -36,8 +35,7 @@ std::string_view to_string(Verdict v) {
 
 std::vector<NeededDuel> needed_duels(const Claim& c, int length) {
     const auto& o = c.options;
-    std::set<std::string> seen(o.begin(), o.end());
-    if (seen.size() != o.size()) throw InputError("claim: an option is named twice");
+    if (first_repeated_name(o)) throw InputError("claim: an option is named twice");
     std::vector<NeededDuel> out;
     switch (c.kind) {
         case ClaimKind::cycle:

@@ -11,6 +11,7 @@
 #include "core/parallel.hpp"
 #include "chain/chain.hpp"
 #include "core/error.hpp"
+#include "core/hash.hpp"
 #include "core/limits.hpp"
 #include "race/duel.hpp"
 #include "core/fraction.hpp"
@@ -29,15 +30,6 @@ struct Failure {
 };
 
 [[noreturn]] void fail(const std::string& what) { throw Failure{what}; }
-
-std::uint64_t fnv1a(const std::string& s) {
-    std::uint64_t h = 1469598103934665603ULL;
-    for (unsigned char c : s) {
-        h ^= c;
-        h *= 1099511628211ULL;
-    }
-    return h;
-}
 
 u64 residue(const mpz_class& z, u64 p) { return static_cast<u64>(mpz_fdiv_ui(z.get_mpz_t(), static_cast<unsigned long>(p))); }
 
@@ -91,7 +83,7 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
     // Two fixed primes and one that depends on the file, so that no edit can be
     // tailored to pass a known set of moduli.
     rep.primes = {next_prime((u64{1} << 61) - (u64{1} << 40)), next_prime((u64{1} << 61) - (u64{1} << 44)),
-                  next_prime((u64{1} << 60) + (fnv1a(text) >> 4))};
+                  next_prime((u64{1} << 60) + (fnv1a(fnv_offset_basis, text) >> 4))};
     try {
         // 1. Options: each listed distribution must be what its spec says.
         std::map<std::string, const Option*> opt;

@@ -6,6 +6,7 @@
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "race/outcome.hpp"
 
 namespace overshoot {
 
@@ -162,23 +163,18 @@ std::optional<std::array<u64, 3>> ordered(const Chain& a, const Chain& b, bool a
 
 std::optional<std::array<std::uint64_t, 3>> modular_duel(const Chain& a, const Chain& b, Order order, u64 p) {
     if (p >= (u64{1} << 61)) throw InternalError("modular_duel: the prime must be below 2^61");
-    switch (order) {
-        case Order::simultaneous: return ordered(a, b, false, p);
-        case Order::a_first: return ordered(a, b, true, p);
-        case Order::b_first: {
-            auto r = ordered(b, a, true, p);
-            if (!r) return r;
-            return std::array<u64, 3>{(*r)[1], (*r)[0], (*r)[2]};
-        }
-        case Order::coin: {
-            auto x = ordered(a, b, true, p), y = ordered(b, a, true, p);
+    using Outcome = std::optional<std::array<u64, 3>>;  // win, loss, tie modulo p; empty when p divides a pivot
+    return by_turn_order(
+        order, [&](bool swapped, bool alternating) { return swapped ? ordered(b, a, alternating, p) : ordered(a, b, alternating, p); },
+        [](Outcome r) {
+            if (r) std::swap((*r)[0], (*r)[1]);
+            return r;
+        },
+        [&](const Outcome& x, const Outcome& y) -> Outcome {
             if (!x || !y) return std::nullopt;
             const u64 half = inverse(2, p);
-            return std::array<u64, 3>{mulmod(((*x)[0] + (*y)[1]) % p, half, p),
-                                      mulmod(((*x)[1] + (*y)[0]) % p, half, p), 0};
-        }
-    }
-    return std::nullopt;
+            return std::array<u64, 3>{mulmod(((*x)[0] + (*y)[0]) % p, half, p), mulmod(((*x)[1] + (*y)[1]) % p, half, p), 0};
+        });
 }
 
 std::uint64_t next_prime(std::uint64_t from) {

@@ -101,16 +101,4 @@ Jump parse_jump(std::string_view t) {
     return Jump{num(t.substr(0, colon)), num(t.substr(colon + 1))};
 }
 
-std::string describe(const Board& b, Order order) {
-    std::string jumps;
-    if (b.jumps.empty()) {
-        jumps = "no jumps";
-    } else {
-        jumps = "jumps";
-        for (const Jump& j : b.jumps) jumps += fmt::format(" {}->{}", j.from, j.to);
-    }
-    return fmt::format("board of {} squares, overshoot {}, {} turns, {}", b.length, to_string(b.rule),
-                       to_string(order), jumps);
-}
-
 }  // namespace overshoot

@@ -39,7 +39,4 @@ Overshoot parse_overshoot(std::string_view text);  // throws InputError
 Order parse_order(std::string_view text);          // throws InputError
 Jump parse_jump(std::string_view text);            // "FROM:TO", throws InputError
 
-// One line describing the rules, e.g. "board 100 squares, overshoot stay, ...".
-std::string describe(const Board& board, Order order);
-
 }  // namespace overshoot

@@ -3,6 +3,7 @@
 #include <fmt/format.h>
 
 #include <numeric>
+#include <set>
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
@@ -270,5 +271,24 @@ Option parse_option(std::string_view spec, std::string name) {
 }
 
 Option parse_option(std::string_view spec) { return parse_option(spec, std::string(spec)); }
+
+std::optional<std::size_t> first_repeated_name(const std::vector<std::string>& names) {
+    std::set<std::string> seen;
+    for (std::size_t i = 0; i < names.size(); ++i)
+        if (!seen.insert(names[i]).second) return i;
+    return std::nullopt;
+}
+
+void require_distinct_names(const std::vector<std::string>& names) {
+    if (auto i = first_repeated_name(names))
+        throw InputError(fmt::format("option name '{}' appears twice; give each option its own name", names[*i]));
+}
+
+void require_distinct_names(const std::vector<Option>& options) {
+    std::vector<std::string> names;
+    names.reserve(options.size());
+    for (const Option& o : options) names.push_back(o.name);
+    require_distinct_names(names);
+}
 
 }  // namespace overshoot

@@ -1,7 +1,9 @@
 #pragma once
 // A movement option: an exact distribution of the number of squares moved per
 // turn, kept as integer weights over one common denominator.
+#include <cstddef>
 #include <cstdint>
+#include <optional>
 #include <string>
 #include <string_view>
 #include <vector>
@@ -27,5 +29,11 @@ Option parse_option(std::string_view spec);
 
 // Same, with a display name other than the spec.
 Option parse_option(std::string_view spec, std::string name);
+
+// The index of the first name that repeats an earlier one, if any.
+std::optional<std::size_t> first_repeated_name(const std::vector<std::string>& names);
+// Throws InputError "option name 'X' appears twice; ..." for the first repeat.
+void require_distinct_names(const std::vector<std::string>& names);
+void require_distinct_names(const std::vector<Option>& options);
 
 }  // namespace overshoot

@@ -28,10 +28,11 @@ inline int threads_per_process(int processes_here) {
     return std::max(1, hw / std::max(1, processes_here));
 }
 
-// Calls f(k) for k in [0, count) on `threads` threads (0 = all cores). The
+// Calls f(k) for k in [0, count) on `threads` threads (0 = all cores), jobs
+// handed out in order. Once `stop` (may be null) is set no new job starts. The
 // first exception thrown by any job is rethrown after every thread stopped.
 template <class F>
-void parallel_for(std::size_t count, int threads, F&& f) {
+void parallel_for(std::size_t count, int threads, F&& f, const std::atomic<bool>* stop = nullptr) {
     if (threads <= 0) threads = default_threads();
     threads = static_cast<int>(std::min<std::size_t>(static_cast<std::size_t>(threads), std::max<std::size_t>(count, 1)));
     std::atomic<std::size_t> next{0};
@@ -39,7 +40,8 @@ void parallel_for(std::size_t count, int threads, F&& f) {
     std::mutex failure_mutex;
     auto work = [&] {
         try {
-            for (std::size_t k; (k = next.fetch_add(1)) < count;) f(k);
+            for (std::size_t k; !(stop && stop->load(std::memory_order_relaxed)) && (k = next.fetch_add(1)) < count;)
+                f(k);
         } catch (...) {
             std::lock_guard<std::mutex> lock(failure_mutex);
             if (!failure) failure = std::current_exception();

@@ -16,20 +16,6 @@ namespace overshoot {
 
 static_assert(std::endian::native == std::endian::little, "checkpoints are written little-endian");
 
-std::uint64_t fingerprint_bytes(std::uint64_t h, const void* data, std::size_t size) {
-    const unsigned char* p = static_cast<const unsigned char*>(data);
-    for (std::size_t i = 0; i < size; ++i) {
-        h ^= p[i];
-        h *= 1099511628211ULL;
-    }
-    return h;
-}
-
-std::uint64_t fingerprint_text(std::uint64_t h, const std::string& s) {
-    h = fingerprint_bytes(h, s.data(), s.size());
-    return fingerprint_bytes(h, "\0", 1);
-}
-
 namespace {
 template <class T>
 void put(std::string& out, const T& v) {

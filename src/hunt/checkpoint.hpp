@@ -41,8 +41,4 @@ void save_checkpoint(const std::string& path, const Checkpoint& c);
 // Throws InputError naming the file when it is missing, foreign or damaged.
 Checkpoint load_checkpoint(const std::string& path);
 
-// FNV-1a over bytes, for fingerprints.
-std::uint64_t fingerprint_bytes(std::uint64_t h, const void* data, std::size_t size);
-std::uint64_t fingerprint_text(std::uint64_t h, const std::string& s);
-
 }  // namespace overshoot

@@ -6,6 +6,8 @@
 
 #include "core/parallel.hpp"
 #include "hunt/checkpoint.hpp"
+#include "race/outcome.hpp"
+#include "tournament/cycles.hpp"
 
 namespace overshoot {
 
@@ -39,7 +41,6 @@ HuntResult search_cycles(const HuntSpec& spec, const HuntStore& store) {
     std::map<std::pair<std::size_t, std::vector<std::size_t>>, Aggregate> found;
     std::vector<double> mg(n * n);
     std::vector<char> beats(n * n);
-    std::vector<std::size_t> path;
     for (std::size_t v = 0; v < nv; ++v) {
         for (std::size_t k = 0; k < nl; ++k) {
             std::fill(beats.begin(), beats.end(), 0);
@@ -51,78 +52,43 @@ HuntResult search_cycles(const HuntSpec& spec, const HuntStore& store) {
                     mg[i * n + j] = m;
                     mg[j * n + i] = -m;
                     // Arcs weaker than the wanted strength cannot be in a wanted cycle.
-                    if (m > b && m >= spec.min_strength) beats[i * n + j] = 1;
-                    if (-m > b && -m >= spec.min_strength) beats[j * n + i] = 1;
+                    if (decided(m, b) > 0 && m >= spec.min_strength) beats[i * n + j] = 1;
+                    if (decided(m, b) < 0 && -m >= spec.min_strength) beats[j * n + i] = 1;
                 }
             out.lengths_examined++;
             out.sets_examined += choose(n, K);
-            // Cycles of exactly K options starting from their smallest index s.
-            for (std::size_t s = 0; s < n; ++s) {
-                path.assign(1, s);
-                // Iterative DFS with explicit "next candidate" per depth.
-                std::vector<std::size_t> next(K, s + 1);
-                int depth = 1;
-                next[1] = s + 1;
-                while (depth >= 1) {
-                    if (depth == K) {
-                        // Close the cycle back to s.
-                        const std::size_t last = path.back();
-                        if (beats[last * n + s]) {
-                            bool has_required = !spec.required;
-                            double strength = mg[last * n + s];
-                            for (int q = 0; q < K; ++q) {
-                                if (spec.required && path[q] == *spec.required) has_required = true;
-                                if (q + 1 < K) strength = std::min(strength, mg[path[q] * n + path[q + 1]]);
-                            }
-                            if (has_required && strength >= spec.min_strength) {
-                                out.cycles_found++;
-                                auto& ag = found[{v, path}];
-                                HuntCycle& c = ag.c;
-                                const int len = lengths[k];
-                                if (c.count == 0) {
-                                    c.variant = v;
-                                    c.options = path;
-                                    c.strongest = c.weakest = strength;
-                                    c.strongest_length = len;
-                                    c.intervals.emplace_back(len, len);
-                                } else {
-                                    if (ag.last + spec.grid.step == len)
-                                        c.intervals.back().second = len;
-                                    else
-                                        c.intervals.emplace_back(len, len);
-                                    if (strength > c.strongest) {
-                                        c.strongest = strength;
-                                        c.strongest_length = len;
-                                    }
-                                    c.weakest = std::min(c.weakest, strength);
-                                }
-                                c.count++;
-                                ag.last = len;
-                            }
-                        }
-                        path.pop_back();
-                        --depth;
-                        continue;
-                    }
-                    bool advanced = false;
-                    const std::size_t from = path.back();
-                    for (std::size_t w = next[depth]; w < n; ++w) {
-                        if (!beats[from * n + w]) continue;
-                        if (std::find(path.begin(), path.end(), w) != path.end()) continue;
-                        next[depth] = w + 1;
-                        path.push_back(w);
-                        ++depth;
-                        if (depth < K) next[depth] = s + 1;
-                        advanced = true;
-                        break;
-                    }
-                    if (!advanced) {
-                        if (depth == 1) break;
-                        path.pop_back();
-                        --depth;
-                    }
+            const int len = lengths[k];
+            for_each_cycle_of_length(n, beats, K, [&](const std::vector<std::size_t>& path) {
+                bool has_required = !spec.required;
+                double strength = mg[path.back() * n + path.front()];
+                for (int q = 0; q < K; ++q) {
+                    if (spec.required && path[q] == *spec.required) has_required = true;
+                    if (q + 1 < K) strength = std::min(strength, mg[path[q] * n + path[q + 1]]);
                 }
-            }
+                if (!has_required || strength < spec.min_strength) return;
+                out.cycles_found++;
+                auto& ag = found[{v, path}];
+                HuntCycle& c = ag.c;
+                if (c.count == 0) {
+                    c.variant = v;
+                    c.options = path;
+                    c.strongest = c.weakest = strength;
+                    c.strongest_length = len;
+                    c.intervals.emplace_back(len, len);
+                } else {
+                    if (ag.last + spec.grid.step == len)
+                        c.intervals.back().second = len;
+                    else
+                        c.intervals.emplace_back(len, len);
+                    if (strength > c.strongest) {
+                        c.strongest = strength;
+                        c.strongest_length = len;
+                    }
+                    c.weakest = std::min(c.weakest, strength);
+                }
+                c.count++;
+                ag.last = len;
+            });
         }
     }
     out.distinct = found.size();

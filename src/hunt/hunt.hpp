@@ -16,14 +16,9 @@
 
 namespace overshoot {
 
-struct HuntCycle {
+// A cycle of a hunt: the lengths where it holds (as in a sweep) and its variant.
+struct HuntCycle : CycleSpan {
     std::size_t variant = 0;
-    std::vector<std::size_t> options;  // each beats the next, the last beats the first
-    std::vector<std::pair<int, int>> intervals;
-    double strongest = 0;   // its best strength over the lengths
-    int strongest_length = 0;
-    double weakest = 0;
-    std::size_t count = 0;  // lengths where it holds
 };
 
 struct HuntResult {

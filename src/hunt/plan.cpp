@@ -8,6 +8,7 @@
 #include <mutex>
 
 #include "core/error.hpp"
+#include "race/outcome.hpp"
 
 namespace overshoot {
 
@@ -62,7 +63,7 @@ std::vector<HuntShard> series_shards(const HuntSpec& spec, std::size_t v, const 
         for (int y = x; y < blocks; ++y) {
             HuntShard sh;
             sh.variant = v;
-            sh.method = "series";
+            sh.method = LengthMethod::series;
             sh.first = 0;
             sh.count = nl;
             std::map<std::size_t, double> turns;  // option -> turns it is stepped
@@ -106,7 +107,7 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
                     }
                     HuntShard sh;
                     sh.variant = v;
-                    sh.method = "pairs";
+                    sh.method = LengthMethod::pairs;
                     sh.pairs = {{i, j}};
                     sh.first = 0;
                     sh.count = nl;
@@ -153,7 +154,7 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
             if (cur.count > 0 && (k != cur.first + cur.count || cur.cost >= target)) flush();
             if (cur.count == 0) {
                 cur.variant = v;
-                cur.method = "board";
+                cur.method = LengthMethod::board;
                 cur.pairs = pairs;
                 cur.first = k;
             }
@@ -187,7 +188,7 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
         const auto kx = std::make_pair(x.pairs.front().a, x.pairs.front().b);
         const auto ky = std::make_pair(y.pairs.front().a, y.pairs.front().b);
         if (kx != ky) return kx < ky;
-        return x.method < y.method;
+        return to_string(x.method) < to_string(y.method);  // by name, as the plan lists them
     });
     for (std::size_t i = 0; i < plan.shards.size(); ++i) plan.shards[i].id = i + 1;
     assign_ranks(plan);
@@ -232,7 +233,7 @@ bool compute_shards(const HuntSpec& spec, const HuntPlan& plan, int rank, HuntSt
             const LengthOutcome& o = by_length[lengths[k]];
             r.margin.push_back(o.margin());
             // The margin is rounded once more here: widen the bound by it.
-            r.bound.push_back(o.error_bound() + 4 * std::ldexp(1.0, -53));
+            r.bound.push_back(rounded_margin_bound(o.error_bound()));
         }
         out.put(r, "hunt");
         cells_done += count;

@@ -2,35 +2,36 @@
 
 #include <fmt/format.h>
 
-#include <set>
 
 #include "core/error.hpp"
-#include "hunt/checkpoint.hpp"
+#include "core/hash.hpp"
 
 namespace overshoot {
 
 std::uint64_t hunt_fingerprint(const HuntSpec& s) {
-    std::uint64_t h = 1469598103934665603ULL;
-    h = fingerprint_text(h, "hunt/1");
+    // Each text ends with a NUL, so that two texts side by side cannot run together.
+    auto text = [](std::uint64_t h, std::string_view t) { return fnv1a(fnv1a(h, t), "\0", 1); };
+    std::uint64_t h = fnv_offset_basis;
+    h = text(h, "hunt/1");
     for (const auto& o : s.options) {
-        h = fingerprint_text(h, o.name);
-        h = fingerprint_bytes(h, o.weight.data(), o.weight.size() * sizeof(o.weight[0]));
-        h = fingerprint_bytes(h, &o.denominator, sizeof o.denominator);
+        h = text(h, o.name);
+        h = fnv1a(h, o.weight.data(), o.weight.size() * sizeof(o.weight[0]));
+        h = fnv1a(h, &o.denominator, sizeof o.denominator);
     }
     int g[3] = {s.grid.lo, s.grid.hi, s.grid.step};
-    h = fingerprint_bytes(h, g, sizeof g);
+    h = fnv1a(h, g, sizeof g);
     for (const auto& v : s.variants) {
         int r[2] = {static_cast<int>(v.rule), static_cast<int>(v.order)};
-        h = fingerprint_bytes(h, r, sizeof r);
+        h = fnv1a(h, r, sizeof r);
     }
-    h = fingerprint_text(h, std::string(to_string(s.engine.method)));
-    h = fingerprint_bytes(h, &s.engine.close_target, sizeof s.engine.close_target);
+    h = text(h, to_string(s.engine.method));
+    h = fnv1a(h, &s.engine.close_target, sizeof s.engine.close_target);
     // Only boards with jumps add to it, so checkpoints of jump-free hunts stay valid.
     if (!s.jumps.empty()) {
-        h = fingerprint_text(h, s.anchor == JumpAnchor::finish ? "jumps/finish" : "jumps/start");
+        h = text(h, s.anchor == JumpAnchor::finish ? "jumps/finish" : "jumps/start");
         for (const auto& j : s.jumps) {
             int fj[2] = {j.from, j.to};
-            h = fingerprint_bytes(h, fj, sizeof fj);
+            h = fnv1a(h, fj, sizeof fj);
         }
     }
     return h;
@@ -43,12 +44,7 @@ void validate_hunt(const HuntSpec& spec) {
     if (n < static_cast<std::size_t>(K))
         throw InputError(fmt::format("a hunt for {}-cycles needs at least {} options, got {}", K, K, n));
     if (spec.min_strength < 0) throw InputError("--min-strength must be 0 or more");
-    {
-        std::set<std::string> names;
-        for (const auto& o : spec.options)
-            if (!names.insert(o.name).second)
-                throw InputError(fmt::format("option name '{}' appears twice; give each option its own name", o.name));
-    }
+    require_distinct_names(spec.options);
     for (const auto& v : spec.variants)
         if (v.order == Order::a_first || v.order == Order::b_first)
             throw InputError(fmt::format("a hunt cannot use the turn order {}: the result would depend on the seat; "

@@ -6,11 +6,11 @@
 #include <cmath>
 #include <limits>
 #include <mutex>
-#include <thread>
 
 #include "chain/chain.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/parallel.hpp"
 #include "lengths/diagonal.hpp"
 #include "lengths/distance.hpp"
 #include "lengths/series.hpp"
@@ -42,15 +42,6 @@ std::vector<Jump> anchored_jumps(const std::vector<Jump>& jumps, JumpAnchor anch
     return out;
 }
 
-namespace {
-
-int thread_count(int requested) {
-    if (requested > 0) return requested;
-    return static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-}
-
-}  // namespace
-
 std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Overshoot rule, Order order,
                                      int max_length, const std::vector<PairRequest>& requests,
                                      const LengthSettings& s, const std::function<void(const PairLengths&)>& on_done) {
@@ -80,7 +71,7 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         to_series[k] = lengths_engine::series_chosen(s.method, est, L) ? 1 : 0;
     }
     std::mutex done_mutex;
-    auto finish = [&](std::size_t k, std::vector<LengthOutcome> v, const char* method) {
+    auto finish = [&](std::size_t k, std::vector<LengthOutcome> v, LengthMethod method) {
         std::lock_guard<std::mutex> lock(done_mutex);
         out[k].by_length = std::move(v);
         out[k].method = method;
@@ -93,10 +84,6 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
     for (std::size_t k = 0; k < requests.size(); ++k) (to_series[k] ? series_list : pp_jobs).push_back(k);
     std::vector<std::size_t> fallback;  // series pairs that hit their cap
     std::mutex fallback_mutex;
-    std::atomic<std::size_t> next{0};
-    std::exception_ptr failure;
-    std::mutex failure_mutex;
-    std::atomic<bool> series_done{series_list.empty()};
     auto series_job = [&] {
         std::vector<lengths_engine::SeriesOption> opts(options.size());
         for (std::size_t i = 0; i < options.size(); ++i) opts[i].o = &dist[i];
@@ -120,39 +107,33 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
             }
             std::vector<double> neither(L + 1, 0);
             for (int d = 1; d <= L; ++d) neither[d] = p.A->o->p_never[d] * p.B->o->p_never[d];
-            finish(p.index, lengths_engine::combine(order, L, p.sim, p.af, p.bf, neither, p.close_bound), "series");
+            finish(p.index, lengths_engine::combine(order, L, p.sim, p.af, p.bf, neither, p.close_bound), LengthMethod::series);
         }
     };
-    auto work = [&](bool first) {
-        try {
-            if (first && !series_list.empty()) {
-                series_job();
-                series_done = true;
+    // Job 0 is the series group when there is one (handed out first), then one
+    // job per programme pair. A cancelled job ends quietly; the flag stops the rest.
+    const std::size_t first_pp = series_list.empty() ? 0 : 1;
+    parallel_for(
+        first_pp + pp_jobs.size(), s.threads,
+        [&](std::size_t j) {
+            try {
+                if (j < first_pp) {
+                    series_job();
+                    return;
+                }
+                const std::size_t k = pp_jobs[j - first_pp];
+                finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel),
+                       LengthMethod::pairs);
+            } catch (const lengths_engine::Cancelled&) {
             }
-            for (std::size_t j; (j = next.fetch_add(1)) < pp_jobs.size();) {
-                const std::size_t k = pp_jobs[j];
-                finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel), "pairs");
-            }
-        } catch (const lengths_engine::Cancelled&) {
-            next.store(pp_jobs.size());
-        } catch (...) {
-            std::lock_guard<std::mutex> lock(failure_mutex);
-            if (!failure) failure = std::current_exception();
-            next.store(pp_jobs.size());
-        }
-    };
-    const int threads = thread_count(s.threads);
-    std::vector<std::thread> pool;
-    for (int i = 1; i < threads; ++i) pool.emplace_back(work, false);
-    work(true);
-    for (auto& th : pool) th.join();
-    if (failure) std::rethrow_exception(failure);
+        },
+        s.cancel);
     // Series pairs that did not close in time: the programme, exact whatever the cap.
     std::sort(fallback.begin(), fallback.end());
     for (std::size_t k : fallback) {
         if (s.cancel && s.cancel->load()) break;
         try {
-            finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel), "pairs");
+            finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel), LengthMethod::pairs);
         } catch (const lengths_engine::Cancelled&) {
             break;
         }
@@ -168,7 +149,7 @@ std::vector<PairLengths> board_results(const std::vector<PairRequest>& requests,
     for (std::size_t k = 0; k < requests.size(); ++k) {
         out[k].a = requests[k].a;
         out[k].b = requests[k].b;
-        out[k].method = "board";
+        out[k].method = LengthMethod::board;
         out[k].by_length.assign(top + 1, LengthOutcome{});
     }
     return out;
@@ -176,12 +157,12 @@ std::vector<PairLengths> board_results(const std::vector<PairRequest>& requests,
 
 LengthOutcome outcome_of(const DuelResult& r) {
     LengthOutcome o;
-    o.win = static_cast<double>(r.p_a_wins);
-    o.loss = static_cast<double>(r.p_b_wins);
-    o.tie = static_cast<double>(r.p_tie);
-    o.neither = static_cast<double>(r.p_neither);
+    o.p_a_wins = static_cast<double>(r.p_a_wins);
+    o.p_b_wins = static_cast<double>(r.p_b_wins);
+    o.p_tie = static_cast<double>(r.p_tie);
+    o.p_neither = static_cast<double>(r.p_neither);
     // Rounded to double here: widen the bound by that rounding.
-    o.bound = static_cast<double>(r.bound) + 2 * lengths_engine::unit_d;
+    o.bound = bound_after_rounding(static_cast<double>(r.bound));
     if (!r.bound_proven || !r.target_met) o.bound = std::numeric_limits<double>::infinity();
     return o;
 }
@@ -195,19 +176,12 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
     const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
     const int anchor_length = reference > 0 ? reference : top;
     std::vector<PairLengths> out = board_results(requests, top);
-    std::atomic<std::size_t> next{0};
-    std::atomic<bool> stopped{false};
-    std::exception_ptr failure;
-    std::mutex failure_mutex;
+    std::atomic<std::size_t> computed{0};
     DuelSettings ds;
     ds.want_median = false;
-    auto work = [&] {
-        try {
-            for (std::size_t j; (j = next.fetch_add(1)) < lengths.size();) {
-                if (s.cancel && s.cancel->load()) {
-                    stopped = true;
-                    break;
-                }
+    parallel_for(
+        lengths.size(), s.threads,
+        [&](std::size_t j) {
                 const int len = lengths[j];
                 Board board = make_board(len, rule, anchored_jumps(jumps, anchor, anchor_length, len));
                 std::vector<Chain> chains(options.size());
@@ -221,20 +195,10 @@ std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Over
                 for (std::size_t k = 0; k < requests.size(); ++k) {
                     out[k].by_length[len] = outcome_of(duel(chains[requests[k].a], chains[requests[k].b], order, ds));
                 }
-            }
-        } catch (...) {
-            std::lock_guard<std::mutex> lock(failure_mutex);
-            if (!failure) failure = std::current_exception();
-            next.store(lengths.size());
-        }
-    };
-    const int threads = thread_count(s.threads);
-    std::vector<std::thread> pool;
-    for (int i = 1; i < threads; ++i) pool.emplace_back(work);
-    work();
-    for (auto& th : pool) th.join();
-    if (failure) std::rethrow_exception(failure);
-    for (auto& p : out) p.done = !stopped;
+                ++computed;
+        },
+        s.cancel);
+    for (auto& p : out) p.done = computed == lengths.size();  // false when the cancel flag stopped some lengths
     return out;
 }
 

@@ -29,9 +29,9 @@ namespace overshoot {
 
 // One duel on one length. Each probability lies within `bound` of its true value.
 struct LengthOutcome {
-    double win = 0, loss = 0, tie = 0, neither = 0;
+    double p_a_wins = 0, p_b_wins = 0, p_tie = 0, p_neither = 0;
     double bound = 0;
-    double margin() const { return win - loss; }
+    double margin() const { return p_a_wins - p_b_wins; }
     double error_bound() const { return 2 * bound; }
 };
 
@@ -41,7 +41,7 @@ struct PairRequest {
 
 struct PairLengths {
     std::size_t a = 0, b = 0;
-    std::string method;                // "series", "pairs" or "board"
+    LengthMethod method = LengthMethod::series;  // series, pairs or board
     bool done = false;                 // false when cancelled before it finished
     std::vector<LengthOutcome> by_length;  // index: length (0 unused), up to max_length
 };

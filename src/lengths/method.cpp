@@ -15,6 +15,7 @@ std::string_view to_string(LengthMethod m) {
         case LengthMethod::automatic: return "auto";
         case LengthMethod::series: return "series";
         case LengthMethod::pairs: return "pairs";
+        case LengthMethod::board: return "board";
     }
     return "?";
 }
@@ -23,17 +24,6 @@ LengthMethod parse_length_method(std::string_view t) {
     for (auto m : {LengthMethod::automatic, LengthMethod::series, LengthMethod::pairs})
         if (t == to_string(m)) return m;
     throw InputError(fmt::format("method '{}': expected auto, series or pairs", t));
-}
-
-OrderedRaces needed_races(Order order) {
-    OrderedRaces r;
-    switch (order) {
-        case Order::simultaneous: r.simultaneous = true; break;
-        case Order::a_first: r.a_first = true; break;
-        case Order::b_first: r.b_first = true; break;
-        case Order::coin: r.a_first = r.b_first = true; break;
-    }
-    return r;
 }
 
 namespace lengths_engine {
@@ -60,8 +50,9 @@ bool series_chosen(LengthMethod method, double turns, int max_length) {
         // Measured (docs/sweep.md): the series costs about 2 T (kA + kB) L
         // against 1.3 L^2 (kA + kB) for the programme.
         case LengthMethod::automatic: return turns <= 0.6 * max_length;
+        case LengthMethod::board: break;  // not a method of the all-lengths engine
     }
-    return false;
+    throw InternalError("series_chosen: board is not an all-lengths method");
 }
 
 }  // namespace lengths_engine

@@ -8,10 +8,14 @@
 
 #include "core/board.hpp"
 #include "core/option.hpp"
+#include "race/outcome.hpp"
 
 namespace overshoot {
 
-enum class LengthMethod { automatic, series, pairs };
+// How the duels of a pair over lengths are computed. `board` (one length at a
+// time through duel(), for jumps and the rule bounce) is what a result says,
+// never a setting: parse_length_method accepts auto, series and pairs.
+enum class LengthMethod { automatic, series, pairs, board };
 
 std::string_view to_string(LengthMethod m);
 LengthMethod parse_length_method(std::string_view text);
@@ -22,13 +26,6 @@ struct LengthSettings {
     int threads = 0;              // 0: every core
     std::atomic<bool>* cancel = nullptr;  // set to stop early (results marked not done)
 };
-
-// The ordered races a pair needs for a turn order (coin needs both seats).
-struct OrderedRaces {
-    bool simultaneous = false, a_first = false, b_first = false;
-    int count() const { return (simultaneous ? 1 : 0) + (a_first ? 1 : 0) + (b_first ? 1 : 0); }
-};
-OrderedRaces needed_races(Order order);
 
 // Estimated turns the series needs for a pair on lengths up to max_length
 // (bulk of the slower option plus the product tail), for choosing the method.

@@ -9,26 +9,26 @@ std::vector<LengthOutcome> combine(Order order, int L, const Tallies& sim, const
     std::vector<LengthOutcome> out(L + 1);
     for (int d = 1; d <= L; ++d) {
         LengthOutcome& o = out[d];
-        o.neither = neither[d];
+        o.p_neither = neither[d];
         o.bound = bound[d];
         switch (order) {
             case Order::simultaneous:
-                o.win = sim.win[d];
-                o.loss = sim.loss[d];
-                o.tie = sim.tie[d];
+                o.p_a_wins = sim.win[d];
+                o.p_b_wins = sim.loss[d];
+                o.p_tie = sim.tie[d];
                 break;
             case Order::a_first:
-                o.win = af.win[d];
-                o.loss = af.loss[d];
+                o.p_a_wins = af.win[d];
+                o.p_b_wins = af.loss[d];
                 break;
             case Order::b_first:
-                o.win = bf.win[d];
-                o.loss = bf.loss[d];
+                o.p_a_wins = bf.win[d];
+                o.p_b_wins = bf.loss[d];
                 break;
             case Order::coin:
-                o.win = (af.win[d] + bf.win[d]) / 2;
-                o.loss = (af.loss[d] + bf.loss[d]) / 2;
-                o.bound += 2 * unit_d;
+                o.p_a_wins = (af.win[d] + bf.win[d]) / 2;
+                o.p_b_wins = (af.loss[d] + bf.loss[d]) / 2;
+                o.bound = bound_after_rounding(o.bound);
                 break;
         }
     }

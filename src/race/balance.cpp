@@ -4,13 +4,10 @@
 
 #include <algorithm>
 #include <cmath>
-#include <atomic>
-#include <exception>
-#include <mutex>
-#include <thread>
 
 #include "chain/chain.hpp"
 #include "core/error.hpp"
+#include "core/parallel.hpp"
 #include "race/duel.hpp"
 
 namespace overshoot {
@@ -298,31 +295,14 @@ JumpSearchResult search_jumps(const Board& board, const std::vector<Option>& opt
     }
     // The races, on every core; each result lands in its own slot, so the
     // output is the same whatever the thread count.
-    std::atomic<std::size_t> next{0};
-    std::exception_ptr failure;
-    std::mutex failure_mutex;
-    auto work = [&] {
-        try {
-            for (std::size_t i; (i = next.fetch_add(1)) < cand.size();) {
-                std::vector<Chain> chains;
-                for (const auto& o : options) chains.push_back(build_chain(boards[i], o));
-                std::vector<const Chain*> ptr;
-                for (const auto& c : chains) ptr.push_back(&c);
-                cand[i].race = race(ptr, {}, order, rs);
-                cand[i].deviation = deviation(cand[i].race);
-            }
-        } catch (...) {
-            std::lock_guard<std::mutex> lock(failure_mutex);
-            if (!failure) failure = std::current_exception();
-            next.store(cand.size());
-        }
-    };
-    const int threads = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-    std::vector<std::thread> pool;
-    for (int t = 1; t < threads; ++t) pool.emplace_back(work);
-    work();
-    for (auto& t : pool) t.join();
-    if (failure) std::rethrow_exception(failure);
+    parallel_for(cand.size(), 0, [&](std::size_t i) {
+        std::vector<Chain> chains;
+        for (const auto& o : options) chains.push_back(build_chain(boards[i], o));
+        std::vector<const Chain*> ptr;
+        for (const auto& c : chains) ptr.push_back(&c);
+        cand[i].race = race(ptr, {}, order, rs);
+        cand[i].deviation = deviation(cand[i].race);
+    });
     // Then in board order: the duels behind `dominant` only for a board that
     // can still enter one of the two kept lists.
     for (std::size_t i = 0; i < cand.size(); ++i) {

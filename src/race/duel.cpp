@@ -1,5 +1,7 @@
 #include "race/duel.hpp"
 
+#include "race/outcome.hpp"
+
 #include <fmt/format.h>
 
 #include <Eigen/Sparse>
@@ -335,9 +337,9 @@ void median_rounds(const Chain& a, const Chain& b, DuelResult& out, std::uint64_
 DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings& s) {
     if (a.length != b.length) throw InternalError("duel: the two chains are on different boards");
     DuelResult out;
-    auto fill = [&](const Tally& t, bool swap) {
-        out.p_a_wins = swap ? t.loss : t.win;
-        out.p_b_wins = swap ? t.win : t.loss;
+    auto fill = [&](const Tally& t) {
+        out.p_a_wins = t.win;
+        out.p_b_wins = t.loss;
         out.p_tie = t.tie;
         out.p_neither = t.neither;
         out.bound = t.bound;
@@ -349,29 +351,29 @@ DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings&
         long double f = t.win + t.loss + t.tie;
         out.mean_rounds = f > 0 ? static_cast<double>(t.rounds / f) : std::nan("");
     };
-    switch (order) {
-        case Order::simultaneous: fill(solve_ordered(a, b, false, s), false); break;
-        case Order::a_first: fill(solve_ordered(a, b, true, s), false); break;
-        case Order::b_first: fill(solve_ordered(b, a, true, s), true); break;
-        case Order::coin: {
-            Tally x = solve_ordered(a, b, true, s);
-            Tally y = solve_ordered(b, a, true, s);
-            Tally m;
-            m.win = (x.win + y.loss) / 2;
-            m.loss = (x.loss + y.win) / 2;
-            m.tie = 0;
-            m.neither = (x.neither + y.neither) / 2;
-            m.rounds = (x.rounds + y.rounds) / 2;
-            m.bound = std::max(x.bound, y.bound) + gamma_ld(2);
-            m.proven = x.proven && y.proven;
-            m.target_met = x.target_met && y.target_met;
-            m.method = x.method == y.method ? x.method : x.method + "+" + y.method;
-            m.median = x.median;  // R = min(T_A, T_B) does not depend on the seats
-            m.median_done = x.median_done;
-            fill(m, false);
-            break;
-        }
-    }
+    auto solve = [&](bool swapped, bool alternating) {
+        return swapped ? solve_ordered(b, a, alternating, s) : solve_ordered(a, b, alternating, s);
+    };
+    auto swap = [](Tally t) {
+        std::swap(t.win, t.loss);
+        return t;
+    };
+    auto coin = [](const Tally& x, const Tally& y) {  // y: B first, seats already swapped back
+        Tally m;
+        m.win = (x.win + y.win) / 2;
+        m.loss = (x.loss + y.loss) / 2;
+        m.tie = 0;
+        m.neither = (x.neither + y.neither) / 2;
+        m.rounds = (x.rounds + y.rounds) / 2;
+        m.bound = std::max(x.bound, y.bound) + gamma_ld(2);
+        m.proven = x.proven && y.proven;
+        m.target_met = x.target_met && y.target_met;
+        m.method = x.method == y.method ? x.method : x.method + "+" + y.method;
+        m.median = x.median;  // R = min(T_A, T_B) does not depend on the seats
+        m.median_done = x.median_done;
+        return m;
+    };
+    fill(by_turn_order(order, solve, swap, coin));
     // Self-check: the four outcomes partition the probability space (NaN fails too).
     selfcheck::check_distribution({out.p_a_wins, out.p_b_wins, out.p_tie, out.p_neither}, out.bound, "duel");
     if (s.want_median && !out.median_resolved) median_rounds(a, b, out, s.work_limit / 4);

@@ -7,6 +7,7 @@
 
 #include "chain/chain.hpp"
 #include "core/board.hpp"
+#include "race/outcome.hpp"
 
 namespace overshoot {
 
@@ -40,8 +41,8 @@ struct DuelResult {
     double margin() const { return static_cast<double>(p_a_wins - p_b_wins); }
     // Bound on the margin: the sum of the two probabilities' bounds.
     double error_bound() const { return static_cast<double>(2 * bound); }
-    bool a_beats_b() const { return margin() > error_bound(); }
-    bool b_beats_a() const { return -margin() > error_bound(); }
+    bool a_beats_b() const { return decided(margin(), error_bound()) > 0; }
+    bool b_beats_a() const { return decided(margin(), error_bound()) < 0; }
 };
 
 // Both chains must be built on the same board.

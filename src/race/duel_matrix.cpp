@@ -3,8 +3,6 @@
 // plus the pair programme on the two end zones left at that horizon.
 #include <algorithm>
 #include <cmath>
-#include <cstdio>
-#include <cstdlib>
 
 #include "chain/absorption.hpp"
 #include "chain/series.hpp"
@@ -284,11 +282,6 @@ std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order orde
                          "the series of every option of this tournament");
     std::vector<Trace> traces(n);
     parallel_for(n, threads, [&](std::size_t i) { traces[i] = tracers[i].finish(horizon); });
-    if (std::getenv("OVERSHOOT_DEBUG_MATRIX")) {
-        std::fprintf(stderr, "horizon %d\n", horizon);
-        for (std::size_t i = 0; i < n; ++i)
-            std::fprintf(stderr, "  %zu zone %d alive %Lg\n", i, chains[i].length - traces[i].lo, traces[i].alive);
-    }
 
     std::vector<std::pair<std::size_t, std::size_t>> jobs;
     for (std::size_t i = 0; i < n; ++i)

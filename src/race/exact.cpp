@@ -4,16 +4,12 @@
 
 #include <algorithm>
 #include <array>
-#include <atomic>
-#include <cmath>
-#include <map>
-#include <memory>
-#include <mutex>
-#include <thread>
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/parallel.hpp"
 #include "race/exact_methods.hpp"
+#include "race/outcome.hpp"
 
 namespace overshoot {
 
@@ -41,24 +37,17 @@ ExactDuel exact_duel(const Chain& a, const Chain& b, Order order) {
     if (std::string why = exact_refusal(a, b); !why.empty()) throw LimitError(why);
     ExactDuel r;
     r.method = a.forward_only ? "exact pair programme" : "exact elimination";
-    auto fill = [&](const std::array<mpq_class, 3>& v, bool swap) {
-        r.p_a_wins = swap ? v[1] : v[0];
-        r.p_b_wins = swap ? v[0] : v[1];
-        r.p_tie = v[2];
-    };
-    switch (order) {
-        case Order::simultaneous: fill(solve_ordered(a, b, false), false); break;
-        case Order::a_first: fill(solve_ordered(a, b, true), false); break;
-        case Order::b_first: fill(solve_ordered(b, a, true), true); break;
-        case Order::coin: {
-            auto x = solve_ordered(a, b, true);
-            auto y = solve_ordered(b, a, true);
-            r.p_a_wins = (x[0] + y[1]) / 2;
-            r.p_b_wins = (x[1] + y[0]) / 2;
-            r.p_tie = 0;
-            break;
-        }
-    }
+    using Outcome = std::array<mpq_class, 3>;  // win, loss, tie
+    const Outcome v = by_turn_order(
+        order, [&](bool swapped, bool alternating) { return swapped ? solve_ordered(b, a, alternating) : solve_ordered(a, b, alternating); },
+        [](Outcome x) {
+            std::swap(x[0], x[1]);
+            return x;
+        },
+        [](const Outcome& x, const Outcome& y) { return Outcome{(x[0] + y[0]) / 2, (x[1] + y[1]) / 2, 0}; });
+    r.p_a_wins = v[0];
+    r.p_b_wins = v[1];
+    r.p_tie = v[2];
     r.p_neither = 1 - r.p_a_wins - r.p_b_wins - r.p_tie;
     if (r.p_neither < 0) throw InternalError("exact duel: the outcomes exceed 1");
     return r;
@@ -69,26 +58,8 @@ std::vector<ExactDuel> exact_duels(const std::vector<std::pair<const Chain*, con
     std::vector<ExactDuel> out(pairs.size());
     for (const auto& [a, b] : pairs)
         if (std::string why = exact_refusal(*a, *b); !why.empty()) throw LimitError(why);
-    if (threads <= 0) threads = static_cast<int>(std::max(1u, std::thread::hardware_concurrency()));
-    threads = std::min<int>(threads, static_cast<int>(std::max<std::size_t>(pairs.size(), 1)));
-    std::atomic<std::size_t> next{0};
-    std::exception_ptr failure;
-    std::mutex mu;
-    auto work = [&] {
-        try {
-            for (std::size_t i; (i = next.fetch_add(1)) < pairs.size();)
-                out[i] = exact_duel(*pairs[i].first, *pairs[i].second, order);
-        } catch (...) {
-            std::lock_guard<std::mutex> lock(mu);
-            if (!failure) failure = std::current_exception();
-            next.store(pairs.size());
-        }
-    };
-    std::vector<std::thread> pool;
-    for (int t = 1; t < threads; ++t) pool.emplace_back(work);
-    work();
-    for (auto& t : pool) t.join();
-    if (failure) std::rethrow_exception(failure);
+    parallel_for(pairs.size(), threads,
+                 [&](std::size_t i) { out[i] = exact_duel(*pairs[i].first, *pairs[i].second, order); });
     return out;
 }
 

@@ -20,6 +20,22 @@ nlohmann::json board_json(const Board& b, Order order) {
             {"jumps", jumps}, {"order", std::string(to_string(order))}};
 }
 
+std::string jumps_text(const std::vector<Jump>& jumps) {
+    if (jumps.empty()) return "no jumps";
+    std::string out = "jumps";
+    for (const Jump& j : jumps) out += fmt::format(" {}->{}", j.from, j.to);
+    return out;
+}
+
+std::string describe(const Board& b, Order order) {
+    return fmt::format("board of {} squares, overshoot {}, {} turns, {}", b.length, to_string(b.rule),
+                       to_string(order), jumps_text(b.jumps));
+}
+
+std::string describe_board(const Board& b) {
+    return fmt::format("board of {} squares, overshoot {}, {}", b.length, to_string(b.rule), jumps_text(b.jumps));
+}
+
 nlohmann::json number_or_null(double x) { return std::isfinite(x) ? nlohmann::json(x) : nlohmann::json(nullptr); }
 nlohmann::json number_or_null(const std::optional<long long>& v) { return v ? nlohmann::json(*v) : nlohmann::json(nullptr); }
 

@@ -5,6 +5,7 @@
 
 #include <optional>
 #include <string>
+#include <vector>
 
 #include "core/board.hpp"
 
@@ -15,6 +16,13 @@ inline constexpr const char* version = OVERSHOOT_VERSION;
 // The fields every JSON document starts with.
 nlohmann::json document(const std::string& kind, int schema_version);
 nlohmann::json board_json(const Board& board, Order order);
+
+// The board in words: "board of 100 squares, overshoot stay, simultaneous
+// turns, jumps 3->11 27->9"; without the order for what does not depend on it
+// (profiles); the jumps alone ("no jumps" or "jumps 3->11 27->9").
+std::string describe(const Board& board, Order order);
+std::string describe_board(const Board& board);
+std::string jumps_text(const std::vector<Jump>& jumps);
 
 // A number, or null when it is not finite / not there.
 nlohmann::json number_or_null(double x);

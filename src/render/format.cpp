@@ -10,6 +10,14 @@ std::string percent(double p) { return fmt::format("{:.4f}%", 100.0 * p); }
 
 std::string number(double x) { return fmt::format("{}", x); }
 
+std::string csv_cell(const std::string& s) {
+    if (s.find_first_of(",\"#\n\r") == std::string::npos && !s.empty() && s.front() != ' ' && s.back() != ' ')
+        return s;
+    std::string out = "\"";
+    for (char c : s) out += c == '"' ? std::string("\"\"") : std::string(1, c);
+    return out + "\"";
+}
+
 std::string optional_int(const std::optional<long long>& v, const char* none) {
     return v ? fmt::format("{}", *v) : std::string(none);
 }

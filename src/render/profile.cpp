@@ -10,11 +10,8 @@
 namespace overshoot::render {
 
 std::string profile_text(const Board& board, Order order, const std::vector<ProfileEntry>& entries) {
-    (void)order;
-    std::string out = describe(board, Order::simultaneous);
-    // Profiles do not depend on the turn order; keep the board part of the line.
-    out = out.substr(0, out.find(", simultaneous turns")) + out.substr(out.find(", simultaneous turns") + 20);
-    out += "\n\n";
+    (void)order;  // profiles do not depend on the turn order
+    std::string out = describe_board(board) + "\n\n";
     std::vector<std::string> header{"option", "P(finish)", "mean turns", "sd", "median"};
     bool any_quantile = false;
     for (const auto& e : entries)

@@ -16,15 +16,8 @@ namespace {
 double d(long double x) { return static_cast<double>(x); }
 
 std::string board_line(const Board& b, RaceOrder order) {
-    std::string jumps;
-    if (b.jumps.empty()) {
-        jumps = "no jumps";
-    } else {
-        jumps = "jumps";
-        for (const Jump& j : b.jumps) jumps += fmt::format(" {}->{}", j.from, j.to);
-    }
     return fmt::format("board of {} squares, overshoot {}, {} order, {}", b.length, to_string(b.rule), to_string(order),
-                       jumps);
+                       jumps_text(b.jumps));
 }
 
 std::vector<std::string> names_of(const std::vector<Option>& options) {

@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "render/format.hpp"
+#include "race/outcome.hpp"
 #include "render/document.hpp"
 #include "render/tournament.hpp"
 
@@ -69,7 +70,7 @@ std::string sweep_text(const SweepResult& r) {
         std::string methods;
         for (const auto& p : vs.pairs)
             methods += fmt::format("{}{} vs {}: {}", methods.empty() ? "" : "; ", r.options[p.a].name,
-                                   r.options[p.b].name, p.method);
+                                   r.options[p.b].name, to_string(p.method));
         out += fmt::format("  method: {}\n", methods);
         if (vs.crossovers.empty()) {
             out += "  crossovers: none\n";
@@ -136,7 +137,7 @@ json sweep_json(const SweepResult& r) {
         const std::string rule(to_string(vs.variant.rule)), order(to_string(vs.variant.order));
         json methods = json::array();
         for (const auto& p : vs.pairs)
-            methods.push_back({{"a", r.options[p.a].name}, {"b", r.options[p.b].name}, {"method", p.method}});
+            methods.push_back({{"a", r.options[p.a].name}, {"b", r.options[p.b].name}, {"method", std::string(to_string(p.method))}});
         variants.push_back({{"overshoot", rule}, {"order", order}, {"methods", methods},
                             {"no_condorcet_winner", runs_json(vs.no_dominant)},
                             {"cycle_cap_hit", vs.cycles_cap_hit}});
@@ -196,24 +197,17 @@ json sweep_json(const SweepResult& r) {
 
 std::string sweep_csv(const SweepResult& r) {
     std::string out = "overshoot,order,length,a,b,p_a_wins,p_b_wins,p_tie,p_neither,margin,error_bound,preferred,method\n";
-    auto quote = [](const std::string& s) {
-        if (s.find_first_of(",\"\n") == std::string::npos) return s;
-        std::string q = "\"";
-        for (char c : s) q += c == '"' ? std::string("\"\"") : std::string(1, c);
-        return q + "\"";
-    };
     for (const auto& vs : r.variants)
         for (std::size_t k = 0; k < vs.lengths.size(); ++k)
             for (const auto& p : vs.pairs) {
                 const LengthOutcome& o = p.at[k];
-                const double bound = o.error_bound() + 4 * std::ldexp(1.0, -53);
-                const std::string pref = o.margin() > bound ? r.options[p.a].name
-                                         : -o.margin() > bound ? r.options[p.b].name
-                                                               : std::string("undecided");
+                const double bound = rounded_margin_bound(o.error_bound());
+                const int d = decided(o.margin(), bound);
+                const std::string pref = d > 0 ? r.options[p.a].name : d < 0 ? r.options[p.b].name : std::string("undecided");
                 out += fmt::format("{},{},{},{},{},{},{},{},{},{},{},{},{}\n", to_string(vs.variant.rule),
-                                   to_string(vs.variant.order), vs.lengths[k], quote(r.options[p.a].name),
-                                   quote(r.options[p.b].name), number(o.win), number(o.loss), number(o.tie),
-                                   number(o.neither), number(o.margin()), number(bound), quote(pref), p.method);
+                                   to_string(vs.variant.order), vs.lengths[k], csv_cell(r.options[p.a].name),
+                                   csv_cell(r.options[p.b].name), number(o.p_a_wins), number(o.p_b_wins), number(o.p_tie),
+                                   number(o.p_neither), number(o.margin()), number(bound), csv_cell(pref), to_string(p.method));
             }
     return out;
 }
@@ -322,7 +316,7 @@ std::string hunt_plan_text(const HuntPlan& plan, const HuntSpec& spec, int threa
     out += "estimated work in multiply-adds (a model, not a measurement; docs/cluster.md)\n";
     std::vector<std::vector<std::string>> rows;
     for (const auto& sh : plan.shards) {
-        std::vector<std::string> row{fmt::format("{}", sh.id), sh.method, shard_pairs(sh, spec),
+        std::vector<std::string> row{fmt::format("{}", sh.id), std::string(to_string(sh.method)), shard_pairs(sh, spec),
                                      shard_lengths(sh, lengths), fmt::format("{:.3g}", sh.cost),
                                      total > 0 ? fmt::format("{:.1f}%", 100 * sh.cost / total) : "-",
                                      fmt::format("{}", sh.rank)};
@@ -359,7 +353,7 @@ json hunt_plan_json(const HuntPlan& plan, const HuntSpec& spec, int threads) {
         shards.push_back({{"id", sh.id},
                           {"overshoot", std::string(to_string(spec.variants[sh.variant].rule))},
                           {"order", std::string(to_string(spec.variants[sh.variant].order))},
-                          {"method", sh.method},
+                          {"method", std::string(to_string(sh.method))},
                           {"pairs", pairs},
                           {"lengths", sh.count ? json::array({lengths[sh.first], lengths[sh.first + sh.count - 1]})
                                                : json(nullptr)},

@@ -142,15 +142,6 @@ std::string dot_quote(const std::string& s) {
     return out + "\"";
 }
 
-std::string csv_cell(const std::string& s) {
-    if (s.find_first_of(",\"#") == std::string::npos && !s.empty() &&
-        s.front() != ' ' && s.back() != ' ')
-        return s;
-    std::string out = "\"";
-    for (char c : s) out += c == '"' ? std::string("\"\"") : std::string(1, c);
-    return out + "\"";
-}
-
 }  // namespace
 
 std::string points(double margin) {

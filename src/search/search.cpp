@@ -326,12 +326,7 @@ std::vector<Candidate> neighbours(const Candidate& c, const Searcher& s, const S
 SearchResult search_board(const SearchSpec& spec) {
     const std::size_t n = spec.options.size();
     if (n < 2) throw InputError(fmt::format("a board search needs at least 2 options, got {}", n));
-    {
-        std::set<std::string> names;
-        for (const auto& o : spec.options)
-            if (!names.insert(o.name).second)
-                throw InputError(fmt::format("option name '{}' appears twice; give each option its own name", o.name));
-    }
+    require_distinct_names(spec.options);
     if (spec.target == SearchTarget::cycle && spec.cycle.size() < 3)
         throw InputError("the target cycle needs a cycle of at least 3 options: --cycle 'A > B > C > A'");
     if (spec.target != SearchTarget::cycle && !spec.cycle.empty())

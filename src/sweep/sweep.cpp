@@ -6,10 +6,10 @@
 #include <charconv>
 #include <cmath>
 #include <map>
-#include <set>
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "race/outcome.hpp"
 
 namespace overshoot {
 
@@ -82,12 +82,12 @@ VariantSweep analyse_variant(const std::vector<Option>& options, const Variant& 
         for (std::size_t i = 0; i < n; ++i)
             for (std::size_t j = i + 1; j < n; ++j) {
                 const LengthOutcome& o = at[i * n + j]->at[k];
-                m.win[i * n + j] = o.win;
-                m.win[j * n + i] = o.loss;
-                m.tie[i * n + j] = m.tie[j * n + i] = o.tie;
-                m.neither[i * n + j] = m.neither[j * n + i] = o.neither;
+                m.win[i * n + j] = o.p_a_wins;
+                m.win[j * n + i] = o.p_b_wins;
+                m.tie[i * n + j] = m.tie[j * n + i] = o.p_tie;
+                m.neither[i * n + j] = m.neither[j * n + i] = o.p_neither;
                 // The margin is rounded once more here: widen the bound by it.
-                m.bound[i * n + j] = m.bound[j * n + i] = o.error_bound() + 4 * std::ldexp(1.0, -53);
+                m.bound[i * n + j] = m.bound[j * n + i] = rounded_margin_bound(o.error_bound());
             }
         Tournament t = analyse(std::move(m), ts);
         LengthSummary s;
@@ -135,9 +135,9 @@ VariantSweep analyse_variant(const std::vector<Option>& options, const Variant& 
         std::vector<int> between;
         for (std::size_t k = 0; k < lengths.size(); ++k) {
             const LengthOutcome& o = p.at[k];
-            const double bound = o.error_bound() + 4 * std::ldexp(1.0, -53);
+            const double bound = rounded_margin_bound(o.error_bound());
             const double mg = o.margin();
-            const int sign = mg > bound ? 1 : (-mg > bound ? -1 : 0);
+            const int sign = decided(mg, bound);
             if (sign == 0) {
                 if (prev_sign != 0) between.push_back(lengths[k]);
                 continue;
@@ -176,12 +176,7 @@ VariantSweep analyse_variant(const std::vector<Option>& options, const Variant& 
 SweepResult run_sweep(const SweepSpec& spec) {
     const std::size_t n = spec.options.size();
     if (n < 2) throw InputError("a sweep needs at least two options");
-    {
-        std::set<std::string> names;
-        for (const auto& o : spec.options)
-            if (!names.insert(o.name).second)
-                throw InputError(fmt::format("option name '{}' appears twice; give each option its own name", o.name));
-    }
+    require_distinct_names(spec.options);
     for (const auto& v : spec.variants)
         if (n > 2 && (v.order == Order::a_first || v.order == Order::b_first))
             throw InputError(fmt::format(

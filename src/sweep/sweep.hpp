@@ -51,7 +51,7 @@ struct LengthSummary {
 
 struct PairSweep {
     std::size_t a = 0, b = 0;
-    std::string method;
+    LengthMethod method = LengthMethod::series;
     std::vector<LengthOutcome> at;  // one per swept length, in grid order
 };
 

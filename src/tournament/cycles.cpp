@@ -9,6 +9,8 @@
 #include <functional>
 #include <limits>
 
+#include "core/error.hpp"
+
 namespace overshoot {
 
 namespace {
@@ -262,6 +264,46 @@ std::vector<std::optional<Cycle>> strongest_cycles_through(std::size_t n, const 
         out[x] = std::move(c);
     }
     return out;
+}
+
+void for_each_cycle_of_length(std::size_t n, const std::vector<char>& beats, int length,
+                              const std::function<void(const std::vector<std::size_t>&)>& visit) {
+    const int K = length;
+    if (K < 3) throw InternalError("for_each_cycle_of_length: a cycle has at least 3 options");
+    std::vector<std::size_t> path;
+    // Cycles of exactly K options starting from their smallest index s.
+    for (std::size_t s = 0; s < n; ++s) {
+        path.assign(1, s);
+        // Iterative DFS with explicit "next candidate" per depth.
+        std::vector<std::size_t> next(K, s + 1);
+        int depth = 1;
+        while (depth >= 1) {
+            if (depth == K) {
+                // Close the cycle back to s.
+                if (beats[path.back() * n + s]) visit(path);
+                path.pop_back();
+                --depth;
+                continue;
+            }
+            bool advanced = false;
+            const std::size_t from = path.back();
+            for (std::size_t w = next[depth]; w < n; ++w) {
+                if (!beats[from * n + w]) continue;
+                if (std::find(path.begin(), path.end(), w) != path.end()) continue;
+                next[depth] = w + 1;
+                path.push_back(w);
+                ++depth;
+                if (depth < K) next[depth] = s + 1;
+                advanced = true;
+                break;
+            }
+            if (!advanced) {
+                if (depth == 1) break;
+                path.pop_back();
+                --depth;
+            }
+        }
+    }
 }
 
 }  // namespace overshoot

@@ -3,6 +3,7 @@
 // strongest first and capped; the strongest cycle of any length, found exactly
 // by thresholding margins; and the strongest cycle through each option.
 #include <cstddef>
+#include <functional>
 #include <optional>
 #include <vector>
 
@@ -27,6 +28,15 @@ std::optional<Cycle> strongest_cycle(std::size_t n, const std::vector<double>& m
 std::vector<std::optional<Cycle>> strongest_cycles_through(std::size_t n, const std::vector<double>& margin,
                                                            const std::vector<char>& beats,
                                                            const std::vector<int>& component);
+
+// Every cycle of exactly `length` options (3 or more) of the digraph `beats`
+// (n x n), each once, starting from its first option in input order; `visit`
+// gets them in lexicographic order. Exhaustive, without a cap: a hunt counts
+// every cycle of the size it looks for. (list_cycles ranks cycles of every
+// length up to a limit; on hundreds of options its pruning costs more than
+// this plain depth-first search does for one fixed length.)
+void for_each_cycle_of_length(std::size_t n, const std::vector<char>& beats, int length,
+                              const std::function<void(const std::vector<std::size_t>&)>& visit);
 
 // Rotates a cycle so that it starts from its smallest index (first in input).
 void rotate_to_first(std::vector<std::size_t>& cycle);

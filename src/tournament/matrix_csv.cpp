@@ -2,16 +2,17 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <charconv>
 #include <cmath>
 #include <fstream>
 #include <optional>
-#include <set>
 #include <sstream>
 #include <vector>
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/option.hpp"
 
 namespace overshoot {
 
@@ -118,14 +119,16 @@ PairwiseMatrix parse_matrix_csv(std::string_view text, const std::string& source
     if (n > 100'000) throw LimitError(fmt::format("{}:{}: too many options ({}, above the limit of 100000)", source, header.number, n));
     limits::check_memory(static_cast<std::uint64_t>(n) * n * 64, "the win matrix");
     PairwiseMatrix m;
-    std::set<std::string> seen;
-    for (std::size_t j = 1; j <= n; ++j) {
-        const std::string& name = header.cells[j];
-        if (name.empty())
-            throw InputError(fmt::format("{}:{}: column {}: empty option name", source, header.number, j + 1));
-        if (!seen.insert(name).second)
-            throw InputError(fmt::format("{}:{}: column {}: option name '{}' appears twice", source, header.number, j + 1, name));
-        m.names.push_back(name);
+    m.names.assign(header.cells.begin() + 1, header.cells.end());
+    {  // the first bad column, read left to right: an empty name or a repeated one
+        const std::size_t empty = static_cast<std::size_t>(
+            std::find(m.names.begin(), m.names.end(), std::string()) - m.names.begin());
+        const std::size_t repeat = first_repeated_name(m.names).value_or(n);
+        if (empty < n && empty <= repeat)
+            throw InputError(fmt::format("{}:{}: column {}: empty option name", source, header.number, empty + 2));
+        if (repeat < n)
+            throw InputError(fmt::format("{}:{}: column {}: option name '{}' appears twice", source, header.number,
+                                         repeat + 2, m.names[repeat]));
     }
     if (lines.size() - 1 != n)
         throw InputError(fmt::format("{}: the header names {} option{} but {} row{} follow{}", source, n,

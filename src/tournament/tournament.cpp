@@ -6,9 +6,9 @@
 #include <boost/graph/adjacency_list.hpp>
 #include <boost/graph/strong_components.hpp>
 #include <cmath>
-#include <set>
 
 #include "core/error.hpp"
+#include "race/outcome.hpp"
 #include "tournament/cycles.hpp"
 #include "tournament/equilibrium.hpp"
 
@@ -41,10 +41,7 @@ void check_matrix(const PairwiseMatrix& m) {
     if (n == 0) throw InputError("a tournament needs at least one option");
     if (m.win.size() != n * n || m.tie.size() != n * n || m.neither.size() != n * n || m.bound.size() != n * n)
         throw InternalError("pairwise matrix of the wrong size");
-    std::set<std::string> seen;
-    for (const auto& name : m.names)
-        if (!seen.insert(name).second)
-            throw InputError(fmt::format("option name '{}' appears twice; give each option its own name", name));
+    require_distinct_names(m.names);
 }
 
 }  // namespace
@@ -70,10 +67,10 @@ Tournament analyse(PairwiseMatrix matrix, const TournamentSettings& settings) {
             // The bound of a pair is one number whichever seat is A; take the larger
             // of the two stored so that i beats j and j beats i never both hold.
             double bound = std::max(m.bound[i * n + j], m.bound[j * n + i]);
-            if (t.margin[i * n + j] > bound) {
+            if (decided(t.margin[i * n + j], bound) > 0) {
                 t.beats[i * n + j] = 1;
                 t.arcs.push_back({i, j, t.margin[i * n + j], bound});
-            } else if (i < j && t.margin[j * n + i] <= bound) {
+            } else if (i < j && decided(t.margin[j * n + i], bound) <= 0) {
                 t.undecided.emplace_back(i, j);
             }
         }
@@ -166,12 +163,7 @@ PairwiseMatrix race_matrix(const Board& board, Order order, const std::vector<Op
             to_string(order)));
     PairwiseMatrix m;
     for (const Option& o : options) m.names.push_back(o.name);
-    {  // refuse duplicate names before any race is run
-        std::set<std::string> seen;
-        for (const auto& name : m.names)
-            if (!seen.insert(name).second)
-                throw InputError(fmt::format("option name '{}' appears twice; give each option its own name", name));
-    }
+    require_distinct_names(m.names);  // before any race is run
     std::vector<Chain> chains;
     chains.reserve(options.size());
     for (const Option& o : options) chains.push_back(build_chain(board, o));
@@ -189,7 +181,7 @@ PairwiseMatrix race_matrix(const Board& board, Order order, const std::vector<Op
             m.tie[i * n + j] = static_cast<double>(d.p_tie);
             m.neither[i * n + j] = static_cast<double>(d.p_neither);
             // The margin is rounded to double here: widen the bound by that rounding.
-            m.bound[i * n + j] = d.error_bound() + 4 * std::ldexp(1.0, -53);
+            m.bound[i * n + j] = rounded_margin_bound(d.error_bound());
             if (!d.bound_proven || !d.target_met) m.bounds_proven = false;
         }
     return m;

@@ -48,7 +48,7 @@ nlohmann::json plan_json(const HuntPlan& p) {
             pairs.push_back(q.a);
             pairs.push_back(q.b);
         }
-        shards.push_back({s.id, s.variant, s.method, pairs, s.first, s.count, s.cost, s.rank});
+        shards.push_back({s.id, s.variant, static_cast<int>(s.method), pairs, s.first, s.count, s.cost, s.rank});
     }
     return {{"ranks", p.ranks},
             {"rank_cost", p.rank_cost},
@@ -67,7 +67,7 @@ HuntPlan plan_from_json(const nlohmann::json& j) {
         HuntShard h;
         h.id = s.at(0).get<std::size_t>();
         h.variant = s.at(1).get<std::size_t>();
-        h.method = s.at(2).get<std::string>();
+        h.method = static_cast<LengthMethod>(s.at(2).get<int>());
         const auto pairs = s.at(3).get<std::vector<std::size_t>>();
         for (std::size_t i = 0; i + 1 < pairs.size(); i += 2) h.pairs.push_back({pairs[i], pairs[i + 1]});
         h.first = s.at(4).get<std::size_t>();
