@@ -641,3 +641,21 @@ TEST_CASE("cli: search refuses bad input in one line and writes nothing half", "
     REQUIRE(t.status == 0);
     CHECK(t.json()["board"] == r.json()["best"][0]["board"]);
 }
+
+TEST_CASE("cli: the certify line a search prints certifies its cycle", "[cli]") {
+    // The chute 98 -> 95 makes 1d6 > 3d6 > 2d6 > 1d6 on 100 squares (docs/search.md).
+    Run r = run({"search", "1d6", "2d6", "3d6", "--length", "100", "--cycle", "1d6 > 3d6 > 2d6 > 1d6", "--from", "98",
+                 "--to", "93..96", "--keep", "1"});
+    REQUIRE(r.status == 0);
+    const std::string key = "Certify its cycle:     overshoot ";
+    const auto at = r.out.find(key);
+    REQUIRE(at != std::string::npos);
+    std::string line = r.out.substr(at + key.size());
+    line = line.substr(0, line.find('\n'));
+    const fs::path cert = scratch() / "search-cycle.json";
+    line.replace(line.find("cycle.json"), 10, cert.string());
+    Run c = run_shell(quote(OVERSHOOT_BINARY) + " " + line, scratch() / "stderr.txt");
+    INFO(line << "\n" << c.err);
+    REQUIRE(c.status == 0);
+    CHECK(run({"check", cert.string()}).status == 0);
+}

@@ -180,9 +180,13 @@ std::string search_text(const SearchResult& r, const SearchSpec& spec) {
         for (const auto& o : spec.options) names += " " + shell_word(o.spec);
         const FoundBoard& f = r.best.front();
         out += fmt::format("\nCheck the best board:  overshoot tournament{} {}\n", names, board_flags(f.board, spec.order));
-        if (spec.target == SearchTarget::cycle && f.holds)
-            out += fmt::format("Certify its cycle:     overshoot certify cycle{} {} --output cycle.json\n", names,
+        if (spec.target == SearchTarget::cycle && f.holds) {
+            // certify cycle reads the cycle from the order of its options.
+            std::string in_order;
+            for (std::size_t i : spec.cycle) in_order += " " + shell_word(spec.options[i].spec);
+            out += fmt::format("Certify its cycle:     overshoot certify cycle{} {} -o cycle.json\n", in_order,
                                board_flags(f.board, spec.order));
+        }
     }
     return out;
 }
