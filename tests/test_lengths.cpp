@@ -14,6 +14,7 @@
 #include "core/error.hpp"
 #include "core/option.hpp"
 #include "race/duel.hpp"
+#include "race/exact.hpp"
 #include "render/sweep.hpp"
 #include "hunt/checkpoint.hpp"
 #include "core/family.hpp"
@@ -125,6 +126,63 @@ TEST_CASE("the engine gives the same bits whatever the thread count", "[lengths]
             REQUIRE(a[k].by_length[d].p_a_wins == b[k].by_length[d].p_a_wins);
             REQUIRE(a[k].by_length[d].p_b_wins == b[k].by_length[d].p_b_wins);
             REQUIRE(a[k].by_length[d].bound == b[k].by_length[d].bound);
+        }
+    }
+}
+
+TEST_CASE("the row form gives the bits of the cell-by-cell programme", "[lengths]") {
+    // The row form adds, in every lane, the terms of the cell loop in the same
+    // order (docs/sweep.md, "Row form"): the results must be equal, not merely
+    // within their bounds. Heavy pairs (blocks of four and two rows), the pool
+    // of the random-board test (moves of 0, zone rows, blocks of one), every
+    // order, both rules.
+    const std::vector<std::vector<const char*>> sets = {
+        {"5d12", "4d10", "3d20", "6d20"}, {"2d6", "[0,1,3]", "{1:3,4:1}", "1d3+1"}, {"[2,2,5]", "4d6", "1d12", "2d4"}};
+    for (const auto& names : sets)
+        for (Overshoot rule : {Overshoot::stay, Overshoot::pass})
+            for (Order order : {Order::simultaneous, Order::coin, Order::a_first}) {
+                std::vector<Option> o;
+                for (const char* n : names) o.push_back(parse_option(n));
+                LengthSettings rows, cells;
+                rows.method = LengthMethod::pairs;
+                cells.method = LengthMethod::pairs_scalar;
+                rows.threads = cells.threads = 2;
+                const int L = 260;
+                auto a = all_lengths(o, rule, order, L, all_pairs(o.size()), rows);
+                auto b = all_lengths(o, rule, order, L, all_pairs(o.size()), cells);
+                REQUIRE(a.size() == b.size());
+                for (std::size_t k = 0; k < a.size(); ++k)
+                    for (int d = 1; d <= L; ++d) {
+                        INFO(o[a[k].a].name << " vs " << o[a[k].b].name << " at " << d);
+                        REQUIRE(a[k].by_length[d].p_a_wins == b[k].by_length[d].p_a_wins);
+                        REQUIRE(a[k].by_length[d].p_b_wins == b[k].by_length[d].p_b_wins);
+                        REQUIRE(a[k].by_length[d].p_tie == b[k].by_length[d].p_tie);
+                        REQUIRE(a[k].by_length[d].bound == b[k].by_length[d].bound);
+                    }
+            }
+}
+
+TEST_CASE("the row form on heavy pairs holds the exact duel inside its bound", "[lengths]") {
+    // Exact fractions (GMP, race/exact.cpp) on short boards: 4d10 against 3d20
+    // and 6d20 against 5d12, every length up to 24 (blocks of two and four rows).
+    for (auto names : {std::vector<const char*>{"4d10", "3d20"}, std::vector<const char*>{"6d20", "5d12"}}) {
+        std::vector<Option> o;
+        for (const char* n : names) o.push_back(parse_option(n));
+        LengthSettings s;
+        s.method = LengthMethod::pairs;
+        s.threads = 1;
+        const int L = 24;
+        auto res = all_lengths(o, Overshoot::stay, Order::simultaneous, L, all_pairs(2), s);
+        for (int len : {1, 5, 12, 23, 24}) {
+            Board board = make_board(len, Overshoot::stay, {});
+            ExactDuel e = exact_duel(build_chain(board, o[0]), build_chain(board, o[1]), Order::simultaneous);
+            const LengthOutcome& x = res[0].by_length[len];
+            INFO(names[0] << " vs " << names[1] << " at " << len);
+            // Compared as fractions: a double converts to mpq_class exactly.
+            const mpq_class bound(x.bound);
+            REQUIRE(abs(mpq_class(x.p_a_wins) - e.p_a_wins) <= bound);
+            REQUIRE(abs(mpq_class(x.p_b_wins) - e.p_b_wins) <= bound);
+            REQUIRE(abs(mpq_class(x.p_tie) - e.p_tie) <= bound);
         }
     }
 }

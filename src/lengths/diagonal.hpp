@@ -11,7 +11,8 @@
 namespace overshoot::lengths_engine {
 
 // Every length 1..L of one pair in the requested order; throws Cancelled.
+// `vectorised` false: every row cell by cell (the same bits, for timing).
 std::vector<LengthOutcome> diagonal_duels(const DistanceModel& A, const DistanceModel& B, Order order, int L,
-                                       std::atomic<bool>* cancel);
+                                       std::atomic<bool>* cancel, bool vectorised = true);
 
 }  // namespace overshoot::lengths_engine

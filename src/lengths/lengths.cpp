@@ -122,7 +122,9 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
                     return;
                 }
                 const std::size_t k = pp_jobs[j - first_pp];
-                finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel),
+                finish(k,
+                       lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel,
+                                                      s.method != LengthMethod::pairs_scalar),
                        LengthMethod::pairs);
             } catch (const lengths_engine::Cancelled&) {
             }
@@ -133,7 +135,10 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
     for (std::size_t k : fallback) {
         if (s.cancel && s.cancel->load()) break;
         try {
-            finish(k, lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel), LengthMethod::pairs);
+            finish(k,
+                   lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel,
+                                                  s.method != LengthMethod::pairs_scalar),
+                   LengthMethod::pairs);
         } catch (const lengths_engine::Cancelled&) {
             break;
         }

@@ -16,14 +16,15 @@ std::string_view to_string(LengthMethod m) {
         case LengthMethod::series: return "series";
         case LengthMethod::pairs: return "pairs";
         case LengthMethod::board: return "board";
+        case LengthMethod::pairs_scalar: return "pairs-scalar";
     }
     return "?";
 }
 
 LengthMethod parse_length_method(std::string_view t) {
-    for (auto m : {LengthMethod::automatic, LengthMethod::series, LengthMethod::pairs})
+    for (auto m : {LengthMethod::automatic, LengthMethod::series, LengthMethod::pairs, LengthMethod::pairs_scalar})
         if (t == to_string(m)) return m;
-    throw InputError(fmt::format("method '{}': expected auto, series or pairs", t));
+    throw InputError(fmt::format("method '{}': expected auto, series, pairs or pairs-scalar", t));
 }
 
 namespace lengths_engine {
@@ -46,7 +47,8 @@ double turns_estimate(const DistanceModel& a, const DistanceModel& b, double tar
 bool series_chosen(LengthMethod method, double turns, int max_length) {
     switch (method) {
         case LengthMethod::series: return true;
-        case LengthMethod::pairs: return false;
+        case LengthMethod::pairs:
+        case LengthMethod::pairs_scalar: return false;
         // Measured (docs/sweep.md): the series costs about 2 T (kA + kB) L
         // against 1.3 L^2 (kA + kB) for the programme.
         case LengthMethod::automatic: return turns <= 0.6 * max_length;

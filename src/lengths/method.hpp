@@ -14,8 +14,11 @@ namespace overshoot {
 
 // How the duels of a pair over lengths are computed. `board` (one length at a
 // time through duel(), for jumps and the rule bounce) is what a result says,
-// never a setting: parse_length_method accepts auto, series and pairs.
-enum class LengthMethod { automatic, series, pairs, board };
+// never a setting: parse_length_method accepts auto, series, pairs and
+// pairs-scalar. pairs: the diagonal programme in row form (vectorised);
+// pairs_scalar: the same programme cell by cell, the same bits, kept to be
+// timed side by side (its results say pairs).
+enum class LengthMethod { automatic, series, pairs, pairs_scalar, board };
 
 std::string_view to_string(LengthMethod m);
 LengthMethod parse_length_method(std::string_view text);

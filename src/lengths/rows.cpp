@@ -1,0 +1,342 @@
+#include "lengths/rows.hpp"
+
+#include <algorithm>
+#include <cstring>
+#include <vector>
+
+#include "core/limits.hpp"
+
+// load() and store() are inlined into every clone: no vector crosses a call
+// between functions of different targets, so GCC's ABI note does not apply.
+#pragma GCC diagnostic ignored "-Wpsabi"
+
+namespace overshoot::lengths_engine {
+
+namespace {
+
+// Four doubles; each clone maps it onto its widest registers. Contraction into
+// fused multiply-adds is off, so every clone (and the scalar loop) rounds
+// each product and each sum alike: the same bits on any x86-64.
+typedef double v4 __attribute__((vector_size(32)));
+typedef double v4u __attribute__((vector_size(32), aligned(8)));  // unaligned loads and stores
+
+#define ROW_KERNEL __attribute__((target_clones("avx512f", "avx2", "default"), optimize("fp-contract=off")))
+
+inline v4 load(const double* p) { return *reinterpret_cast<const v4u*>(p); }
+inline void store(double* p, v4 v) { *reinterpret_cast<v4u*>(p) = v; }
+
+// out[b] = (sum_e p[e] src[e][b]) / den over b in [lo, hi), terms added in
+// the order e = 0, 1, ... starting from 0 (as the cell-by-cell loop adds them).
+// A null source adds nothing (a finished first piece adds no loss).
+ROW_KERNEL void weighted_rows(double* __restrict out, const double* const* src, const double* p, int k, double den,
+                              int lo, int hi) {
+    int b = lo;
+    const bool divide = den != 1.0;
+    for (; b + 8 <= hi; b += 8) {
+        v4 x0 = {0, 0, 0, 0}, x1 = {0, 0, 0, 0};
+        for (int e = 0; e < k; ++e) {
+            if (!src[e]) continue;
+            __builtin_prefetch(src[e] + b + 32);  // many rows side by side (see block_rows4)
+            x0 += p[e] * load(src[e] + b);
+            x1 += p[e] * load(src[e] + b + 4);
+        }
+        if (divide) {
+            x0 /= den;
+            x1 /= den;
+        }
+        store(out + b, x0);
+        store(out + b + 4, x1);
+    }
+    for (; b < hi; ++b) {
+        double x = 0;
+        for (int e = 0; e < k; ++e)
+            if (src[e]) x += p[e] * src[e][b];
+        out[b] = divide ? x / den : x;
+    }
+}
+
+// R rows at once (R = 2 or 4) in the first piece's free region, where the
+// smallest move is at least R so that no row of the block reads another.
+// Each source row s is loaded once for every row it feeds: row a + r takes the
+// move m = a + r - s with weight pz[m] (pz is zero-padded: adding +0 leaves a
+// non-negative sum unchanged). Source rows are visited from the nearest
+// (smallest move) outwards, so every output adds its terms in the order of
+// increasing moves, as weighted_rows does: the same bits. out[r] receives row
+// a + r divided by den; rows_w[i], rows_l[i] are the G rows of distance
+// a - mmax + i, up to a + R - 1 - mmin.
+#define BLOCK_ROWS(NAME, R)                                                                                         \
+    ROW_KERNEL void NAME(double* const* outw, double* const* outl, const double* const* rows_w,                    \
+                         const double* const* rows_l, const double* pz, int mmin, int mmax, int a, double den,      \
+                         int lo, int hi) {                                                                          \
+        const bool divide = den != 1.0;                                                                             \
+        const int top = a + R - 1 - mmin, bottom = a - mmax;                                                        \
+        int b = lo;                                                                                                 \
+        for (; b + 4 <= hi; b += 4) {                                                                               \
+            v4 w[R], l[R];                                                                                          \
+            _Pragma("GCC unroll 4") for (int r = 0; r < R; ++r) w[r] = l[r] = v4{0, 0, 0, 0};                       \
+            for (int s = top; s >= bottom; --s) {                                                                   \
+                /* Hundreds of rows are read side by side: no hardware stream  */                                  \
+                /* detector follows them all, so ask for the next lines early. */                                  \
+                __builtin_prefetch(rows_w[s - bottom] + b + 32);                                                             \
+                __builtin_prefetch(rows_l[s - bottom] + b + 32);                                                             \
+                const v4 xw = load(rows_w[s - bottom] + b), xl = load(rows_l[s - bottom] + b);                                        \
+                const double* p = pz + (a - s);                                                                     \
+                _Pragma("GCC unroll 4") for (int r = 0; r < R; ++r) {                                               \
+                    w[r] += p[r] * xw;                                                                              \
+                    l[r] += p[r] * xl;                                                                              \
+                }                                                                                                   \
+            }                                                                                                       \
+            _Pragma("GCC unroll 4") for (int r = 0; r < R; ++r) {                                                   \
+                store(outw[r] + b, divide ? w[r] / den : w[r]);                                                     \
+                store(outl[r] + b, divide ? l[r] / den : l[r]);                                                     \
+            }                                                                                                       \
+        }                                                                                                           \
+        for (; b < hi; ++b)                                                                                         \
+            for (int r = 0; r < R; ++r) {                                                                           \
+                double xw = 0, xl = 0;                                                                              \
+                for (int s = top; s >= bottom; --s) {                                                               \
+                    xw += pz[a + r - s] * rows_w[s - bottom][b];                                                             \
+                    xl += pz[a + r - s] * rows_l[s - bottom][b];                                                             \
+                }                                                                                                   \
+                outw[r][b] = divide ? xw / den : xw;                                                                \
+                outl[r][b] = divide ? xl / den : xl;                                                                \
+            }                                                                                                       \
+    }
+BLOCK_ROWS(block_rows4, 4)
+BLOCK_ROWS(block_rows2, 2)
+#undef BLOCK_ROWS
+
+// The second piece's free moves on a finished row v: for b in [lo, hi),
+// y(b) = sum_i mp[i] v(b - mv[i]) in four partial sums (i mod 4; the last
+// moves into the first), then g(b) = stay(b) v(b) + y(b). Same order as the
+// cell-by-cell loop.
+ROW_KERNEL void shifted_rows(const double* __restrict vw, const double* __restrict vl, double* __restrict gw,
+                             double* __restrict gl, const int* mv, const double* mp, int nm, const double* stay,
+                             int lo, int hi) {
+    const int n4 = nm - nm % 4;
+    int b = lo;
+    for (; b + 4 <= hi; b += 4) {
+        v4 w0 = {0, 0, 0, 0}, w1 = w0, w2 = w0, w3 = w0, l0 = w0, l1 = w0, l2 = w0, l3 = w0;
+        int i = 0;
+        for (; i < n4; i += 4) {
+            w0 += mp[i] * load(vw + b - mv[i]);
+            l0 += mp[i] * load(vl + b - mv[i]);
+            w1 += mp[i + 1] * load(vw + b - mv[i + 1]);
+            l1 += mp[i + 1] * load(vl + b - mv[i + 1]);
+            w2 += mp[i + 2] * load(vw + b - mv[i + 2]);
+            l2 += mp[i + 2] * load(vl + b - mv[i + 2]);
+            w3 += mp[i + 3] * load(vw + b - mv[i + 3]);
+            l3 += mp[i + 3] * load(vl + b - mv[i + 3]);
+        }
+        for (; i < nm; ++i) {
+            w0 += mp[i] * load(vw + b - mv[i]);
+            l0 += mp[i] * load(vl + b - mv[i]);
+        }
+        const v4 yw = (w0 + w1) + (w2 + w3), yl = (l0 + l1) + (l2 + l3);
+        const v4 s = load(stay + b);
+        store(gw + b, s * load(vw + b) + yw);
+        store(gl + b, s * load(vl + b) + yl);
+    }
+    for (; b < hi; ++b) {
+        double w0 = 0, w1 = 0, w2 = 0, w3 = 0, l0 = 0, l1 = 0, l2 = 0, l3 = 0;
+        int i = 0;
+        for (; i < n4; i += 4) {
+            w0 += mp[i] * vw[b - mv[i]];
+            l0 += mp[i] * vl[b - mv[i]];
+            w1 += mp[i + 1] * vw[b - mv[i + 1]];
+            l1 += mp[i + 1] * vl[b - mv[i + 1]];
+            w2 += mp[i + 2] * vw[b - mv[i + 2]];
+            l2 += mp[i + 2] * vl[b - mv[i + 2]];
+            w3 += mp[i + 3] * vw[b - mv[i + 3]];
+            l3 += mp[i + 3] * vl[b - mv[i + 3]];
+        }
+        for (; i < nm; ++i) {
+            w0 += mp[i] * vw[b - mv[i]];
+            l0 += mp[i] * vl[b - mv[i]];
+        }
+        gw[b] = stay[b] * vw[b] + ((w0 + w1) + (w2 + w3));
+        gl[b] = stay[b] * vl[b] + ((l0 + l1) + (l2 + l3));
+    }
+}
+
+// The second piece's zone rows (explicit transitions) on cell b.
+inline void zone_terms(const DistanceModel& B, int b, const double* vw, const double* vl, double& yw, double& yl) {
+    yw = 0;
+    yl = 0;
+    for (int e = B.zone_row[b]; e < B.zone_row[b + 1]; ++e) {
+        const int to = B.zone_to[e];
+        const double p = B.zone_p[e];
+        if (to == 0) {
+            yl += p;
+        } else {
+            yw += p * vw[to];
+            yl += p * vl[to];
+        }
+    }
+}
+
+// The free-move terms of one cell, four partial sums.
+inline void free_terms(const DistanceModel& B, int b, const double* vw, const double* vl, double& yw, double& yl) {
+    const int* mv = B.moves.data();
+    const double* mp = B.move_p.data();
+    const int nm = static_cast<int>(B.moves.size());
+    // Four partial sums: the loop is bound by the latency of one chain of
+    // additions otherwise (the bound does not depend on the order).
+    double w0 = 0, w1 = 0, w2 = 0, w3 = 0, l0 = 0, l1 = 0, l2 = 0, l3 = 0;
+    int i = 0;
+    for (; i + 4 <= nm; i += 4) {
+        w0 += mp[i] * vw[b - mv[i]];
+        l0 += mp[i] * vl[b - mv[i]];
+        w1 += mp[i + 1] * vw[b - mv[i + 1]];
+        l1 += mp[i + 1] * vl[b - mv[i + 1]];
+        w2 += mp[i + 2] * vw[b - mv[i + 2]];
+        l2 += mp[i + 2] * vl[b - mv[i + 2]];
+        w3 += mp[i + 3] * vw[b - mv[i + 3]];
+        l3 += mp[i + 3] * vl[b - mv[i + 3]];
+    }
+    for (; i < nm; ++i) {
+        w0 += mp[i] * vw[b - mv[i]];
+        l0 += mp[i] * vl[b - mv[i]];
+    }
+    yw = (w0 + w1) + (w2 + w3);
+    yl = (l0 + l1) + (l2 + l3);
+}
+
+}  // namespace
+
+RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_first, int L, double* dw, double* dl,
+                        bool vectorised, std::atomic<bool>* cancel) {
+    const int ring = A.max_move + 1;
+    limits::check_memory(static_cast<std::uint64_t>(ring + 12) * (L + 1) * 2 * sizeof(double),
+                         "the pair programme of this sweep");
+    const std::size_t stride = static_cast<std::size_t>(L) + 1;
+    // G(a', b): the value once the first piece has moved to a' and before the
+    // second moves; rows kept in a ring of max-move + 1.
+    std::vector<double> gw(static_cast<std::size_t>(ring) * stride, 0), gl(gw.size(), 0);
+    // V rows: one for a row done alone, four for a block of rows.
+    std::vector<double> vbuf(8 * stride, 0), hw(stride, 0), xw(stride), xl(stride);
+    double* vw = vbuf.data();
+    double* vl = vbuf.data() + stride;
+    double* bw[4];
+    double* bl[4];
+    for (int r = 0; r < 4; ++r) {
+        bw[r] = vbuf.data() + (2 * r) * stride;
+        bl[r] = vbuf.data() + (2 * r + 1) * stride;
+    }
+    for (int b = 1; b <= L; ++b) hw[b] = a_first ? 1.0 : B.no_finish[b];
+    const int zb = std::min(L, B.zone);
+    // The first piece's free moves, as zero-padded weights by move.
+    const int na = static_cast<int>(A.moves.size()), nb = static_cast<int>(B.moves.size());
+    const int mmin = na > 0 ? A.moves.front() : 0, mmax = na > 0 ? A.moves.back() : 0;
+    std::vector<double> pz(static_cast<std::size_t>(mmax) + 8, 0.0);
+    for (int i = 0; i < na; ++i) pz[A.moves[i]] = A.move_p[i];
+    const int block = !vectorised ? 1 : mmin >= 4 ? 4 : mmin >= 2 ? 2 : 1;
+    std::vector<const double*> sw, sl, rows_w(static_cast<std::size_t>(mmax) + 8), rows_l(rows_w.size());
+    std::vector<double> sp;
+    RowCounts counts;
+    const auto Lu = static_cast<std::uint64_t>(L);
+    // The G row of a + r from its finished V row (second piece's moves).
+    auto finish_row = [&](int a, const double* v_w, const double* v_l) {
+        double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
+        double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
+        for (int b = 1; b <= zb; ++b) {
+            double yw, yl;
+            zone_terms(B, b, v_w, v_l, yw, yl);
+            rw[b] = B.stay[b] * v_w[b] + yw;
+            rl[b] = B.stay[b] * v_l[b] + yl;
+        }
+        shifted_rows(v_w, v_l, rw, rl, B.moves.data(), B.move_p.data(), nb, B.stay.data(), zb + 1, L + 1);
+        dw[a] = v_w[a];
+        dl[a] = v_l[a];
+        counts.multiply_adds += 2 * static_cast<std::uint64_t>(nb) * Lu;
+        ++counts.vector_rows;
+    };
+    // A row of the free region with no self-loop: the block may start here.
+    auto free_row = [&](int a) { return a > A.zone && a <= L && A.stay[a] == 0.0 && A.leave[a] == A.leave[A.zone + 1]; };
+    int last_check = 0;
+    for (int a = 1; a <= L;) {
+        if (cancel && a - last_check >= 16) {
+            last_check = a;
+            if (cancel->load(std::memory_order_relaxed)) throw Cancelled{};
+        }
+        if (block > 1 && free_row(a) && free_row(a + block - 1) && A.leave[a] > 0) {
+            double* ow[4] = {bw[0], bw[1], bw[2], bw[3]};
+            double* ol[4] = {bl[0], bl[1], bl[2], bl[3]};
+            // The G rows by distance, so the kernel does no ring arithmetic.
+            for (int s = a - mmax; s <= a + block - 1 - mmin; ++s) {
+                const std::size_t off = static_cast<std::size_t>(s % ring) * stride;
+                rows_w[s - (a - mmax)] = gw.data() + off;
+                rows_l[s - (a - mmax)] = gl.data() + off;
+            }
+            if (block == 4)
+                block_rows4(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, A.leave[a], 1, L + 1);
+            else
+                block_rows2(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, A.leave[a], 1, L + 1);
+            counts.multiply_adds += 2 * static_cast<std::uint64_t>(na) * Lu * block;
+            for (int r = 0; r < block; ++r) finish_row(a + r, bw[r], bl[r]);
+            a += block;
+            continue;
+        }
+        sw.clear();
+        sl.clear();
+        sp.clear();
+        auto add_source = [&](int to, double p) {
+            if (to == 0) {
+                sw.push_back(hw.data());
+                sl.push_back(nullptr);
+            } else {
+                const std::size_t off = static_cast<std::size_t>(to % ring) * stride;
+                sw.push_back(gw.data() + off);
+                sl.push_back(gl.data() + off);
+            }
+            sp.push_back(p);
+        };
+        if (a <= A.zone) {
+            for (int e = A.zone_row[a]; e < A.zone_row[a + 1]; ++e) add_source(A.zone_to[e], A.zone_p[e]);
+        } else {
+            for (int i = 0; i < na; ++i) add_source(a - A.moves[i], A.move_p[i]);
+        }
+        const int k = static_cast<int>(sp.size());
+        const double sa = A.stay[a], la = A.leave[a];
+        const auto nl = static_cast<std::uint64_t>(std::count(sl.begin(), sl.end(), nullptr));
+        counts.multiply_adds += (2 * static_cast<std::uint64_t>(k) - nl) * Lu;
+        if (vectorised && sa == 0.0 && la > 0) {
+            // No self-loop: v = x / la (x + 0 y = x, la + 0 lb = la: the same bits).
+            weighted_rows(vw, sw.data(), sp.data(), k, la, 1, L + 1);
+            weighted_rows(vl, sl.data(), sp.data(), k, la, 1, L + 1);
+            finish_row(a, vw, vl);
+            ++a;
+            continue;
+        }
+        weighted_rows(xw.data(), sw.data(), sp.data(), k, 1.0, 1, L + 1);
+        weighted_rows(xl.data(), sl.data(), sp.data(), k, 1.0, 1, L + 1);
+        double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
+        double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
+        for (int b = 1; b <= L; ++b) {
+            double yw, yl;
+            if (b <= zb)
+                zone_terms(B, b, vw, vl, yw, yl);
+            else
+                free_terms(B, b, vw, vl, yw, yl);
+            // 1 - sa sb written as la + sa lb: no cancellation for heavy options.
+            const double den = la + sa * B.leave[b];
+            double w = 0, l = 0;
+            if (den > 0) {
+                w = (xw[b] + sa * yw) / den;
+                l = (xl[b] + sa * yl) / den;
+            }
+            vw[b] = w;
+            vl[b] = l;
+            rw[b] = B.stay[b] * w + yw;
+            rl[b] = B.stay[b] * l + yl;
+        }
+        dw[a] = vw[a];
+        dl[a] = vl[a];
+        counts.multiply_adds += 2 * static_cast<std::uint64_t>(nb) * Lu;
+        ++counts.scalar_rows;
+        ++a;
+    }
+    return counts;
+}
+
+}  // namespace overshoot::lengths_engine

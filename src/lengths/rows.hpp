@@ -1,0 +1,30 @@
+#pragma once
+// The diagonal pair programme written row by row (docs/sweep.md, "Row form").
+// Where the first piece's stay probability at distance a is exactly 0 (every
+// row outside its end zone for dice), the self-loop term vanishes and row a of
+// the programme is a sum of earlier rows, scaled (the first piece's moves),
+// then a sum of shifted copies of itself (the second piece's moves): contiguous
+// multiply-adds, vectorised with run-time dispatch (any x86-64). Rows where the
+// piece may stay keep the closed-form self-loop, cell by cell. Each lane adds
+// the same terms in the same order as the cell-by-cell loop, so the results
+// are the same bits. Internal to src/lengths/.
+#include <atomic>
+#include <cstdint>
+
+#include "lengths/distance.hpp"
+
+namespace overshoot::lengths_engine {
+
+// How the rows of one run were done, and its multiply-adds.
+struct RowCounts {
+    std::uint64_t vector_rows = 0, scalar_rows = 0, multiply_adds = 0;
+};
+
+// Win and loss of every diagonal start (d, d), d = 1..L, of the ordered race
+// (A first when a_first, else simultaneous); dw and dl have L + 1 entries.
+// `vectorised` false runs every row cell by cell (the previous loop, kept to
+// be timed side by side). Throws Cancelled.
+RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_first, int L, double* dw, double* dl,
+                        bool vectorised, std::atomic<bool>* cancel);
+
+}  // namespace overshoot::lengths_engine
