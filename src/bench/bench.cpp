@@ -12,6 +12,8 @@
 #include "core/fraction.hpp"
 #include "core/hash.hpp"
 #include "race/exact.hpp"
+#include "core/family.hpp"
+#include "hunt/hunt.hpp"
 #include "race/several_pieces.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/tournament.hpp"
@@ -111,6 +113,41 @@ BenchReport run_bench() {
                                       t.strongest_cycle ? digits(t.strongest_cycle->strength) : "none");
         for (const auto& c : t.counters) out += c.counter ? fmt::format(" {}", *c.counter) : std::string(" -");
         for (std::size_t i : t.equilibrium.support) out += fmt::format(" {}:{:.9f}", i, t.equilibrium.weight[i]);
+        return out;
+    });
+    // Pairs of heavy options (many or large dice) go to the diagonal pair
+    // programme: a shortened hunt with many of them.
+    timed("hunt dice(count=1..6, sides=4,12,20) over 7..700", [&] {
+        HuntSpec spec;
+        spec.options = parse_family("dice(count=1..6, sides=4,12,20)");
+        spec.grid = {7, 700, 1};
+        spec.engine.threads = 1;
+        HuntResult h = run_hunt(spec);
+        std::string out = fmt::format("{} {} {}", h.cycles_found, h.distinct, h.sets_examined);
+        if (!h.cycles.empty()) {
+            const HuntCycle& c = h.cycles.front();
+            for (std::size_t i : c.options) out += fmt::format(" {}", i);
+            out += fmt::format(" {} @{}", digits(c.strongest), c.strongest_length);
+        }
+        return out;
+    });
+    timed("duel 1d6 2d6 on 10000", [&] { return duel_on(10000, "1d6", "2d6", Order::simultaneous); });
+    // A general board (jumps both ways, bounce): 66 duels by the series.
+    timed("tournament 12 options, bounce, 6 jumps on 100", [&] {
+        Board board = make_board(100, Overshoot::bounce, {{4, 25}, {21, 42}, {36, 6}, {51, 67}, {62, 19}, {87, 24}});
+        std::vector<Option> options;
+        for (const char* o : {"1d4", "1d6", "1d8", "1d10", "1d12", "2d4", "2d6", "2d8", "3d4", "3d6", "4d4", "1d20"})
+            options.push_back(parse_option(o));
+        DuelSettings ds;
+        ds.want_median = false;
+        PairwiseMatrix m = race_matrix(board, Order::simultaneous, options, ds, 1);
+        std::string out;
+        for (std::size_t i = 0; i < m.size(); ++i) {
+            double row = 0;
+            for (std::size_t j = 0; j < m.size(); ++j)
+                if (i != j) row += m.win[i * m.size() + j];
+            out += digits(row) + " ";
+        }
         return out;
     });
     return rep;
