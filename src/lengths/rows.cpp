@@ -55,7 +55,7 @@ ROW_KERNEL void weighted_rows(double* __restrict out, const double* const* src, 
     }
 }
 
-// R rows at once (R = 2 or 4) in the first piece's free region, where the
+// R rows at once (R = 2, 3 or 4) in the first piece's free region, where the
 // smallest move is at least R so that no row of the block reads another.
 // Each source row s is loaded once for every row it feeds: row a + r takes the
 // move m = a + r - s with weight pz[m] (pz is zero-padded: adding +0 leaves a
@@ -103,6 +103,7 @@ ROW_KERNEL void weighted_rows(double* __restrict out, const double* const* src, 
             }                                                                                                       \
     }
 BLOCK_ROWS(block_rows4, 4)
+BLOCK_ROWS(block_rows3, 3)
 BLOCK_ROWS(block_rows2, 2)
 #undef BLOCK_ROWS
 
@@ -230,7 +231,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
     const int mmin = na > 0 ? A.moves.front() : 0, mmax = na > 0 ? A.moves.back() : 0;
     std::vector<double> pz(static_cast<std::size_t>(mmax) + 8, 0.0);
     for (int i = 0; i < na; ++i) pz[A.moves[i]] = A.move_p[i];
-    const int block = !vectorised ? 1 : mmin >= 4 ? 4 : mmin >= 2 ? 2 : 1;
+    const int block = !vectorised ? 1 : std::min(mmin, 4) >= 2 ? std::min(mmin, 4) : 1;
     std::vector<const double*> sw, sl, rows_w(static_cast<std::size_t>(mmax) + 8), rows_l(rows_w.size());
     std::vector<double> sp;
     RowCounts counts;
@@ -268,10 +269,8 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
                 rows_w[s - (a - mmax)] = gw.data() + off;
                 rows_l[s - (a - mmax)] = gl.data() + off;
             }
-            if (block == 4)
-                block_rows4(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, A.leave[a], 1, L + 1);
-            else
-                block_rows2(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, A.leave[a], 1, L + 1);
+            auto kernel = block == 4 ? block_rows4 : block == 3 ? block_rows3 : block_rows2;
+            kernel(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, A.leave[a], 1, L + 1);
             counts.multiply_adds += 2 * static_cast<std::uint64_t>(na) * Lu * block;
             for (int r = 0; r < block; ++r) finish_row(a + r, bw[r], bl[r]);
             a += block;
