@@ -107,6 +107,32 @@ BLOCK_ROWS(block_rows3, 3)
 BLOCK_ROWS(block_rows2, 2)
 #undef BLOCK_ROWS
 
+// The second piece's free moves on one cell b of a finished row v, in four
+// partial sums (i mod 4; the last moves into the first): the loop is bound
+// by the latency of one chain of additions otherwise (the bound does not
+// depend on the order).
+inline void free_terms(const int* mv, const double* mp, int nm, int b, const double* vw, const double* vl, double& yw,
+                       double& yl) {
+    double w0 = 0, w1 = 0, w2 = 0, w3 = 0, l0 = 0, l1 = 0, l2 = 0, l3 = 0;
+    int i = 0;
+    for (; i + 4 <= nm; i += 4) {
+        w0 += mp[i] * vw[b - mv[i]];
+        l0 += mp[i] * vl[b - mv[i]];
+        w1 += mp[i + 1] * vw[b - mv[i + 1]];
+        l1 += mp[i + 1] * vl[b - mv[i + 1]];
+        w2 += mp[i + 2] * vw[b - mv[i + 2]];
+        l2 += mp[i + 2] * vl[b - mv[i + 2]];
+        w3 += mp[i + 3] * vw[b - mv[i + 3]];
+        l3 += mp[i + 3] * vl[b - mv[i + 3]];
+    }
+    for (; i < nm; ++i) {
+        w0 += mp[i] * vw[b - mv[i]];
+        l0 += mp[i] * vl[b - mv[i]];
+    }
+    yw = (w0 + w1) + (w2 + w3);
+    yl = (l0 + l1) + (l2 + l3);
+}
+
 // The second piece's free moves on a finished row v: for b in [lo, hi),
 // y(b) = sum_i mp[i] v(b - mv[i]) in four partial sums (i mod 4; the last
 // moves into the first), then g(b) = stay(b) v(b) + y(b). Same order as the
@@ -139,24 +165,10 @@ ROW_KERNEL void shifted_rows(const double* __restrict vw, const double* __restri
         store(gl + b, s * load(vl + b) + yl);
     }
     for (; b < hi; ++b) {
-        double w0 = 0, w1 = 0, w2 = 0, w3 = 0, l0 = 0, l1 = 0, l2 = 0, l3 = 0;
-        int i = 0;
-        for (; i < n4; i += 4) {
-            w0 += mp[i] * vw[b - mv[i]];
-            l0 += mp[i] * vl[b - mv[i]];
-            w1 += mp[i + 1] * vw[b - mv[i + 1]];
-            l1 += mp[i + 1] * vl[b - mv[i + 1]];
-            w2 += mp[i + 2] * vw[b - mv[i + 2]];
-            l2 += mp[i + 2] * vl[b - mv[i + 2]];
-            w3 += mp[i + 3] * vw[b - mv[i + 3]];
-            l3 += mp[i + 3] * vl[b - mv[i + 3]];
-        }
-        for (; i < nm; ++i) {
-            w0 += mp[i] * vw[b - mv[i]];
-            l0 += mp[i] * vl[b - mv[i]];
-        }
-        gw[b] = stay[b] * vw[b] + ((w0 + w1) + (w2 + w3));
-        gl[b] = stay[b] * vl[b] + ((l0 + l1) + (l2 + l3));
+        double yw, yl;
+        free_terms(mv, mp, nm, b, vw, vl, yw, yl);
+        gw[b] = stay[b] * vw[b] + yw;
+        gl[b] = stay[b] * vl[b] + yl;
     }
 }
 
@@ -176,32 +188,6 @@ inline void zone_terms(const DistanceModel& B, int b, const double* vw, const do
     }
 }
 
-// The free-move terms of one cell, four partial sums.
-inline void free_terms(const DistanceModel& B, int b, const double* vw, const double* vl, double& yw, double& yl) {
-    const int* mv = B.moves.data();
-    const double* mp = B.move_p.data();
-    const int nm = static_cast<int>(B.moves.size());
-    // Four partial sums: the loop is bound by the latency of one chain of
-    // additions otherwise (the bound does not depend on the order).
-    double w0 = 0, w1 = 0, w2 = 0, w3 = 0, l0 = 0, l1 = 0, l2 = 0, l3 = 0;
-    int i = 0;
-    for (; i + 4 <= nm; i += 4) {
-        w0 += mp[i] * vw[b - mv[i]];
-        l0 += mp[i] * vl[b - mv[i]];
-        w1 += mp[i + 1] * vw[b - mv[i + 1]];
-        l1 += mp[i + 1] * vl[b - mv[i + 1]];
-        w2 += mp[i + 2] * vw[b - mv[i + 2]];
-        l2 += mp[i + 2] * vl[b - mv[i + 2]];
-        w3 += mp[i + 3] * vw[b - mv[i + 3]];
-        l3 += mp[i + 3] * vl[b - mv[i + 3]];
-    }
-    for (; i < nm; ++i) {
-        w0 += mp[i] * vw[b - mv[i]];
-        l0 += mp[i] * vl[b - mv[i]];
-    }
-    yw = (w0 + w1) + (w2 + w3);
-    yl = (l0 + l1) + (l2 + l3);
-}
 
 }  // namespace
 
@@ -316,7 +302,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
             if (b <= zb)
                 zone_terms(B, b, vw, vl, yw, yl);
             else
-                free_terms(B, b, vw, vl, yw, yl);
+                free_terms(B.moves.data(), B.move_p.data(), nb, b, vw, vl, yw, yl);
             // 1 - sa sb written as la + sa lb: no cancellation for heavy options.
             const double den = la + sa * B.leave[b];
             double w = 0, l = 0;
