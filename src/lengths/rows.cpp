@@ -1,7 +1,6 @@
 #include "lengths/rows.hpp"
 
 #include <algorithm>
-#include <cstring>
 #include <vector>
 
 #include "core/limits.hpp"
@@ -246,7 +245,9 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
             last_check = a;
             if (cancel->load(std::memory_order_relaxed)) throw Cancelled{};
         }
-        if (block > 1 && free_row(a) && free_row(a + block - 1) && A.leave[a] > 0) {
+        bool whole_block = block > 1 && A.leave[a] > 0;
+        for (int r = 0; r < block && whole_block; ++r) whole_block = free_row(a + r);
+        if (whole_block) {
             double* ow[4] = {bw[0], bw[1], bw[2], bw[3]};
             double* ol[4] = {bl[0], bl[1], bl[2], bl[3]};
             // The G rows by distance, so the kernel does no ring arithmetic.
