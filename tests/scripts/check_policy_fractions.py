@@ -25,26 +25,15 @@ from DESIGN.md ("Semantics, exactly") and share no code with the C++ engine.
 Usage: check_policy_fractions.py BINARY SOURCE_DIR
 """
 import json
+import os
 import subprocess
 import sys
 from fractions import Fraction
 
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from check_duel_fractions import add, fair, one_turn, to_prob  # noqa: E402
+
 FAIL = []
-
-
-def fair(faces):
-    w = {}
-    for f in faces:
-        w[f] = w.get(f, 0) + 1
-    return w
-
-
-def add(x, y):
-    w = {}
-    for m, a in x.items():
-        for n, b in y.items():
-            w[m + n] = w.get(m + n, 0) + a * b
-    return w
 
 
 # Each spec used here with its distribution written out by hand.
@@ -68,31 +57,7 @@ OPTIONS = {
 
 def moves(spec, n, rule, jumps):
     """rows[s] = {destination: probability} for squares 0..n-1; n is the finish."""
-    w = OPTIONS[spec]
-    total = sum(w.values())
-    jump = dict(jumps)
-
-    def land(t):
-        while t in jump:
-            t = jump[t]
-        return t
-
-    rows = []
-    for s in range(n):
-        row = {}
-        for m, c in w.items():
-            t = s + m
-            if t < n:
-                d = land(t)
-            elif t == n:
-                d = n
-            elif rule == "stay":
-                d = s
-            else:  # pass
-                d = n
-            row[d] = row.get(d, 0) + Fraction(c, total)
-        rows.append(row)
-    return rows
+    return one_turn(n, rule, jumps, to_prob(OPTIONS[spec]))
 
 
 def run(binary, args):
@@ -390,12 +355,17 @@ def main():
     for rule in ["stay", "pass"]:
         alone_case(binary, 9, rule, ["1d3", "2d3", "[0,2]"])
         alone_case(binary, 14, rule, ["1d6", "2d6"])
-    if FAIL:
-        print(f"{len(FAIL)} failure(s):")
-        for f in FAIL[:40]:
+    finish(FAIL, "policies agree with value iteration (floats) and with exact evaluation (fractions)")
+
+
+def finish(failures, success):
+    """Prints the failures and exits 1, or prints `success`."""
+    if failures:
+        print(f"{len(failures)} failure(s):")
+        for f in failures[:40]:
             print("  " + f)
         sys.exit(1)
-    print("policies agree with value iteration (floats) and with exact evaluation (fractions)")
+    print(success)
 
 
 if __name__ == "__main__":

@@ -30,7 +30,7 @@ import numpy as np
 from scipy.optimize import linprog
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from check_policy_fractions import Duel  # noqa: E402
+from check_policy_fractions import Duel, finish  # noqa: E402
 
 FAIL = []
 
@@ -130,12 +130,7 @@ def main():
     # A board where a few states have no saddle point (found by a search over small dice).
     game_case(binary, 10, ["[2,3]", "[1,4,0,5]"], ["[1,1]", "[4,1]", "[4,0,5,2]"], 1)
     game_case(binary, 9, ["1d6", "2d6"], ["1d6", "2d6"], 0)
-    if FAIL:
-        print(f"{len(FAIL)} failure(s):")
-        for f in FAIL[:40]:
-            print("  " + f)
-        sys.exit(1)
-    print("policies agree with SciPy's linear programmes")
+    finish(FAIL, "policies agree with SciPy's linear programmes")
 
 
 if __name__ == "__main__":
