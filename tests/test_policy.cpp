@@ -219,7 +219,7 @@ TEST_CASE("policy command: JSON keys, figure and one-line errors", "[policy][cli
     CHECK(std::fabs(total - 1) < 1e-12);
     // The figure: an SVG file with one legend entry per option.
     const auto svg = std::filesystem::temp_directory_path() / ("overshoot-policy-" + std::to_string(::getpid()) + ".svg");
-    r = policy_cli("--length 20 --menu 1d6,[1,1,4] --against 2d6 --svg " + svg.string());
+    r = policy_cli("--length 20 --menu 1d6,[1,1,4] --against 2d6 --format svg -o " + svg.string());
     REQUIRE(r.status == 0);
     const std::string text = overshoot::testing::slurp(svg);
     CHECK(text.rfind("<?xml", 0) == 0);

@@ -36,6 +36,12 @@ nlohmann::json finite_or_null(long double x) {
     return std::isfinite(x) ? nlohmann::json(static_cast<double>(x)) : nlohmann::json(nullptr);
 }
 
+// A signed percentage that never shows "-0.0000%".
+std::string signed_percent(long double x) {
+    const double p = 100.0 * static_cast<double>(x);
+    return fmt::format("{:+.4f}%", std::fabs(p) < 5e-5 ? 0.0 : p);
+}
+
 std::string rounds_text(long double x) { return std::isfinite(x) ? fmt::format("{:.4f}", static_cast<double>(x)) : "-"; }
 
 // A piece never rests on a jump's source: no state has it there.
@@ -227,7 +233,7 @@ std::string duel_policy_text(const DuelPolicyView& v) {
     auto row = [&](std::string who, const PolicyOutcomes& o) {
         rows.push_back({std::move(who), percent(static_cast<double>(o.p_a_wins)), percent(static_cast<double>(o.p_b_wins)),
                         percent(static_cast<double>(o.p_tie)), percent(static_cast<double>(o.p_neither)),
-                        fmt::format("{:+.4f}%", 100.0 * static_cast<double>(o.p_a_wins - o.p_b_wins))});
+                        signed_percent(o.p_a_wins - o.p_b_wins)});
     };
     row(game ? "A adaptive" : "A adaptive", d.outcomes);
     for (std::size_t i = 0; i < menu.size(); ++i) row("A always " + menu[i].name, c.fixed[i].outcomes);
@@ -236,7 +242,7 @@ std::string duel_policy_text(const DuelPolicyView& v) {
                  rows);
     out += fmt::format("error bound: each probability within {:.1e}\n", static_cast<double>(d.outcomes.bound));
     if (game && v.order == Order::simultaneous)
-        out += fmt::format("value of the game (margin): {:+.10f}, proven within [{:+.10f}, {:+.10f}]; {} of {} states "
+        out += fmt::format("value of the game (margin): {:+.4e}, proven within [{:+.4e}, {:+.4e}]; {} of {} states "
                            "need a mixed choice\n",
                            static_cast<double>(d.value), static_cast<double>(d.value_low),
                            static_cast<double>(d.value_high), d.mixed_states,
@@ -244,7 +250,7 @@ std::string duel_policy_text(const DuelPolicyView& v) {
     const FixedPolicy& best = c.fixed[c.best_fixed];
     out += fmt::format("best fixed option: {} ({} {}); adaptivity is worth {:+.4f} points of {}\n",
                        menu[c.best_fixed].name, game ? "margin" : "P(A wins)",
-                       game ? fmt::format("{:+.4f}%", 100.0 * static_cast<double>(best.value))
+                       game ? signed_percent(best.value)
                             : percent(static_cast<double>(best.value)),
                        100.0 * static_cast<double>(c.worth), game ? "margin" : "P(A wins)");
     if (d.exact) {
@@ -258,7 +264,7 @@ std::string duel_policy_text(const DuelPolicyView& v) {
                                fraction_string(*c.exact_worth));
     }
     const bool alternating = v.order != Order::simultaneous;
-    out += fmt::format("\nA's choice {} by distances to the finish (runs of B's distance; * another option is as "
+    out += fmt::format("\nA's choice {}, by distances to the finish (runs of B's distance; * another option is as "
                        "good{}):\n",
                        alternating ? "when A is to move" : "each round", game && !alternating ? ", ~ mixed: the "
                                                                                              "heaviest option shown" : "");
@@ -393,12 +399,15 @@ svg::Element policy_figure(const DuelPolicyView& v) {
     const DuelPolicy& d = v.result->adaptive;
     const auto& menu = *v.menu;
     const int n = d.length;
-    const double plot = 520, cell = plot / n, left = 64, top = 48, W = left + plot + 190, H = top + plot + 58;
+    // Distances 1..shown; the states nearest the finish are where choices differ.
+    const int shown = v.figure_distance > 0 ? std::min(v.figure_distance, n) : n;
+    const double plot = 520, cell = plot / shown, left = 64, top = 48, W = left + plot + 190, H = top + plot + 58;
     const bool game = v.against->size() > 1;
-    std::string title = fmt::format("Optimal choice of A from {} {} on {} squares ({})", names_of(menu),
+    std::string title = fmt::format("Optimal choice of A from {} {} on {} squares ({}{})", names_of(menu),
                                     game ? "against B choosing from " + names_of(*v.against)
                                          : "against " + (*v.against)[0].name,
-                                    n, to_string(v.order));
+                                    n, to_string(v.order),
+                                    shown < n ? fmt::format(", distances up to {}", shown) : std::string());
     svg::Element root = svg::document(
         W, H, title,
         "A map of the option piece A should take for every pair of distances to the finish: B's distance "
@@ -411,12 +420,12 @@ svg::Element policy_figure(const DuelPolicyView& v) {
     // One rectangle per run of equal cells along B's distance keeps the file small.
     svg::Element cells("g");
     cells.set("shape-rendering", "crispEdges");
-    for (int da = 1; da <= n; ++da) {
+    for (int da = 1; da <= shown; ++da) {
         const int a = n - da;
         if (!rests(*v.board, a)) continue;
         const double y = top + plot - da * cell;
         int db = 1;
-        while (db <= n) {
+        while (db <= shown) {
             const int b = n - db;
             const std::size_t idx = static_cast<std::size_t>(a) * n + b;
             if (!rests(*v.board, b)) {
@@ -426,7 +435,7 @@ svg::Element policy_figure(const DuelPolicyView& v) {
             const Choice& c = d.a_choice[idx];
             const bool pale = c.indifferent() || (!d.mixed.empty() && d.mixed[idx]);
             int end = db;
-            while (end + 1 <= n) {
+            while (end + 1 <= shown) {
                 const int b2 = n - (end + 1);
                 if (!rests(*v.board, b2)) break;
                 const std::size_t i2 = static_cast<std::size_t>(a) * n + b2;
@@ -443,8 +452,8 @@ svg::Element policy_figure(const DuelPolicyView& v) {
     }
     root.add(std::move(cells));
     // Axes: ticks at round distances.
-    const double step = std::max(1.0, nice_step(n, 8));
-    for (double t = step; t <= n + 1e-9; t += step) {
+    const double step = std::max(1.0, nice_step(shown, 8));
+    for (double t = step; t <= shown + 1e-9; t += step) {
         const double x = left + (t - 0.5) * cell, y = top + plot - (t - 0.5) * cell;
         root.add(svg::line(x, top + plot, x, top + plot + 5, ink, 1));
         svg::Element tx = svg::text(x, top + plot + 18, fmt::format("{}", static_cast<int>(t)), 11, "middle");
@@ -465,8 +474,11 @@ svg::Element policy_figure(const DuelPolicyView& v) {
     yl.set("fill", ink).set("transform", fmt::format("rotate(-90 16 {})", svg::num(top + plot / 2)));
     root.add(std::move(yl));
     bool any_pale = false;
-    for (std::size_t i = 0; i < d.a_choice.size() && !any_pale; ++i)
-        any_pale = d.a_choice[i].indifferent() || (!d.mixed.empty() && d.mixed[i]);
+    for (int da = 1; da <= shown && !any_pale; ++da)
+        for (int db = 1; db <= shown && !any_pale; ++db) {
+            const std::size_t i = static_cast<std::size_t>(n - da) * n + (n - db);
+            any_pale = d.a_choice[i].indifferent() || (!d.mixed.empty() && d.mixed[i]);
+        }
     svg::Element lt = svg::text(left + plot + 24, top + 4, "A chooses", 12);
     lt.set("fill", ink);
     root.add(std::move(lt));
@@ -519,6 +531,48 @@ svg::Element alone_policy_figure(const AlonePolicyView& v) {
     root.add(std::move(xl));
     legend(root, left + plot + 24, top, menu, true, "indifferent");
     return root;
+}
+
+}  // namespace overshoot::render
+
+namespace overshoot::render {
+
+std::string policy_section_html(const DuelPolicyView& v) {
+    using svg::escape;
+    const PolicyComparison& c = *v.result;
+    const DuelPolicy& d = c.adaptive;
+    const auto& menu = *v.menu;
+    const bool game = v.against->size() > 1;
+    std::string h = "<section id=\"policy\"><h2>Choosing the option every turn</h2>\n<p class=\"note\">";
+    h += game ? escape(fmt::format("A chooses each turn from {}, B from {}: a zero-sum game with payoff the margin "
+                                   "P(A wins) - P(B wins).",
+                                   names_of(menu), names_of(*v.against)))
+              : escape(fmt::format("A chooses each turn from {} to maximise P(A wins); B always plays {}.",
+                                   names_of(menu), (*v.against)[0].name));
+    h += "</p>\n<table><thead><tr><th>A</th><th>P(A wins)</th><th>P(B wins)</th><th>P(tie)</th><th>P(neither)</th>"
+         "</tr></thead><tbody>\n";
+    auto row = [&](const std::string& who, const PolicyOutcomes& o) {
+        h += "<tr><td>" + escape(who) + "</td><td>" + percent(static_cast<double>(o.p_a_wins)) + "</td><td>" +
+             percent(static_cast<double>(o.p_b_wins)) + "</td><td>" + percent(static_cast<double>(o.p_tie)) +
+             "</td><td>" + percent(static_cast<double>(o.p_neither)) + "</td></tr>\n";
+    };
+    row("adaptive", d.outcomes);
+    for (std::size_t i = 0; i < menu.size(); ++i) row("always " + menu[i].name, c.fixed[i].outcomes);
+    h += "</tbody></table>\n";
+    h += "<p class=\"note\">" +
+         escape(fmt::format("Best fixed option: {}. Adaptivity is worth {:+.4f} points of {}. Each probability is "
+                            "within {:.1e}.",
+                            menu[c.best_fixed].name, 100.0 * static_cast<double>(c.worth),
+                            game ? "the margin" : "P(A wins)", static_cast<double>(d.outcomes.bound))) +
+         "</p>\n";
+    h += "<figure>" + policy_figure(v).str() + "<figcaption>" +
+         escape("A's optimal option for every pair of distances to the finish (B's across, A's upward); pale: "
+                "another option is as good, or the choice is mixed.") +
+         "</figcaption></figure>\n";
+    h += "<p class=\"note\">A game of choices can be used as a hustle: whoever knows the optimal policy wins far "
+         "more often than a casual opponent expects. Do not use it against people who cannot see it; bets on it "
+         "are gambling and subject to local law.</p>\n</section>\n";
+    return h;
 }
 
 }  // namespace overshoot::render

@@ -27,6 +27,7 @@ struct DuelPolicyView {
     const std::vector<Option>* against = nullptr;
     const PolicyComparison* result = nullptr;
     bool state_values = false;  // JSON: the goal's value at every state too
+    int figure_distance = 0;    // the map shows distances 1..this (0: the whole board)
 };
 
 std::string alone_policy_text(const AlonePolicyView& v);
@@ -38,6 +39,9 @@ nlohmann::json duel_policy_json(const DuelPolicyView& v);
 // one colour per option, pale where another option is as good or the choice
 // is mixed; the legend names the options.
 svg::Element policy_figure(const DuelPolicyView& v);
+// The report's section: the outcomes table, the map and the caution.
+std::string policy_section_html(const DuelPolicyView& v);
+
 // The alone policies: one band per policy along the distance.
 svg::Element alone_policy_figure(const AlonePolicyView& v);
 
