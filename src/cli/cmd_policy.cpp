@@ -69,16 +69,20 @@ const Registration reg(33, [](CLI::App& app) {
     auto* cmd = app.add_subcommand("policy", "choosing the option every turn: optimal policies and what adaptivity is worth");
     add_board_flags(*cmd, args->board);
     add_output_flags(*cmd, args->out, {"text", "json", "svg"});
-    cmd->add_option("--menu", args->menu, "options piece A chooses from each turn: SPEC,SPEC,... (specs or scenario names)");
-    cmd->add_option("--against", args->against, "a fixed option for piece B: A maximises P(A wins)");
+    cmd->add_option("--menu", args->menu, "options piece A chooses from each turn: SPEC,SPEC,... (specs or scenario names)")
+        ->type_name("SPEC,...");
+    cmd->add_option("--against", args->against, "a fixed option for piece B: A maximises P(A wins)")
+        ->type_name("SPEC");
     cmd->add_option("--against-menu", args->against_menu,
-                    "options piece B chooses from: a zero-sum game with payoff P(A wins) - P(B wins)");
+                    "options piece B chooses from: a zero-sum game with payoff P(A wins) - P(B wins)")
+        ->type_name("SPEC,...");
     cmd->add_flag("--exact", args->exact, "values and choices in exact fractions (docs/policy.md says where)");
     cmd->add_flag("--state-values", args->state_values,
                   "with --json: the goal's value at every state (A to move, and B to move for alternating orders)");
     cmd->add_option("--map-distance", args->map_distance,
                     "with --format svg: the map shows distances 1..D only, where choices differ (default 0: all)")
-        ->check(whole_in(0, limits::max_length));
+        ->check(whole_in(0, limits::max_length))
+        ->type_name("D");
     cmd->callback([args] { run(*args); });
 });
 

@@ -198,11 +198,14 @@ const Registration reg(80, [](CLI::App& app) {
     cmd->add_option("--balance-lengths", args->balance_lengths, "add the fairest lengths in LO..HI")
         ->check(range_in(1, limits::max_length));
     cmd->add_option("--policy-against", args->policy_against,
-                    "add the optimal policy of choosing from the options each turn against this fixed option");
+                    "add the optimal policy of choosing from the options each turn against this fixed option")
+        ->type_name("SPEC");
     cmd->add_option("--policy-against-menu", args->policy_against_menu,
-                    "add the game of choosing each turn: the options against this menu SPEC,SPEC,...");
+                    "add the game of choosing each turn: the options against this menu SPEC,SPEC,...")
+        ->type_name("SPEC,...");
     cmd->add_option("--policy-distance", args->policy_distance, "the policy map shows distances 1..D (default 0: all)")
-        ->check(whole_in(0, limits::max_length));
+        ->check(whole_in(0, limits::max_length))
+        ->type_name("D");
     cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)")->check(whole_in(0, 4096));
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);
