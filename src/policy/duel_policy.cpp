@@ -183,8 +183,10 @@ long double sweep_bound(const std::vector<Chain>& a, const std::vector<Chain>& b
     for (const auto& c : a) widest = std::max(widest, c.max_move);
     for (const auto& c : b) widest = std::max(widest, c.max_move);
     const int n = a.front().length;
-    return static_cast<long double>(4 * n + 4) *
-           gamma_ld(widest + 2 * max_menu_options + max_menu_options * max_menu_options + 16);
+    const int na = static_cast<int>(a.size()), nb = static_cast<int>(b.size());
+    // The longest sum of one state: a row of moves, the candidates' terms and
+    // the weights of a mixed choice.
+    return static_cast<long double>(4 * n + 4) * gamma_ld(widest + 2 * (na + nb) + na * nb + 16);
 }
 
 // The simultaneous game of two menus (Shapley, 1953, PNAS 39:1095-1100): at
