@@ -4,10 +4,11 @@
 
 #include <cmath>
 
+#include "core/fraction.hpp"
 #include "race/exact.hpp"
 #include "render/figures.hpp"
 #include "render/format.hpp"
-#include "render/race.hpp"
+#include "render/document.hpp"
 
 namespace overshoot::render {
 
@@ -30,10 +31,6 @@ nlohmann::json menu_json(const std::vector<Option>& opts) {
     nlohmann::json a = nlohmann::json::array();
     for (const auto& o : opts) a.push_back({{"name", o.name}, {"spec", o.spec}});
     return a;
-}
-
-nlohmann::json finite_or_null(long double x) {
-    return std::isfinite(x) ? nlohmann::json(static_cast<double>(x)) : nlohmann::json(nullptr);
 }
 
 // A signed percentage that never shows "-0.0000%".
@@ -172,14 +169,14 @@ nlohmann::json alone_policy_json(const AlonePolicyView& v) {
     j["board"].erase("order");
     j["menu"] = menu_json(menu);
     j["p_finish"] = static_cast<double>(r.best.p_finish[0]);
-    j["expected_rounds"] = finite_or_null(r.best.rounds[0]);
+    j["expected_rounds"] = number_or_null(static_cast<double>(r.best.rounds[0]));
     j["error_bound"] = static_cast<double>(r.bound);
     j["relative_error_bound"] = static_cast<double>(r.relative_bound);
     nlohmann::json fixed = nlohmann::json::array();
     for (std::size_t i = 0; i < menu.size(); ++i)
         fixed.push_back({{"option", menu[i].name},
                          {"p_finish", static_cast<double>(r.fixed[i].p_finish[0])},
-                         {"expected_rounds", finite_or_null(r.fixed[i].rounds[0])}});
+                         {"expected_rounds", number_or_null(static_cast<double>(r.fixed[i].rounds[0]))}});
     j["fixed"] = fixed;
     nlohmann::json rows = nlohmann::json::array();
     const int n = r.length;
@@ -190,7 +187,7 @@ nlohmann::json alone_policy_json(const AlonePolicyView& v) {
         rows.push_back({{"distance", d},
                         {"fastest", f.option < 0 ? nlohmann::json(nullptr) : nlohmann::json(menu[f.option].name)},
                         {"fastest_as_good", names_in(f.as_good, menu)},
-                        {"expected_rounds", finite_or_null(r.best.rounds[s])},
+                        {"expected_rounds", number_or_null(static_cast<double>(r.best.rounds[s]))},
                         {"surest", menu[r.surest[s].option].name},
                         {"surest_as_good", names_in(r.surest[s].as_good, menu)},
                         {"p_finish", static_cast<double>(r.best.p_finish[s])}});
