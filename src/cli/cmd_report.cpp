@@ -13,6 +13,7 @@
 #include "cli/registry.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "policy/duel_policy.hpp"
 #include "race/choice.hpp"
 #include "race/several_pieces.hpp"
 #include "render/figures.hpp"
@@ -38,6 +39,8 @@ struct ReportArgs {
     bool distinct = false;
     std::optional<std::string> balance_starts;
     std::optional<std::string> balance_lengths;
+    std::optional<std::string> policy_against, policy_against_menu;
+    int policy_distance = 0;
     int threads = 0;
 };
 
@@ -70,6 +73,8 @@ void run(const ReportArgs& a) {
         throw InputError(fmt::format("order '{}' is for duels; give --race-order simultaneous or seated for the race sections",
                                      to_string(s.order)));
     }
+    if (!want_all && (a.policy_against || a.policy_against_menu))
+        throw InputError("--policy-against and --policy-against-menu belong to the HTML report, not to --figure");
     if (a.race_order && !multi) throw InputError("--race-order applies to --race, --choose and --balance-* only");
 
     render::ReportInput in;
@@ -145,6 +150,25 @@ void run(const ReportArgs& a) {
         fair = balance_lengths(s.board, s.options, race_order, lo, hi);
         in.fair_lengths = &*fair;
     }
+    // The policy section: the report's options are A's menu.
+    std::optional<PolicyComparison> policy;
+    std::vector<Option> against;
+    std::optional<render::DuelPolicyView> policy_view;
+    if (a.policy_against || a.policy_against_menu) {
+        if (a.policy_against && a.policy_against_menu)
+            throw InputError("give --policy-against or --policy-against-menu, not both");
+        against = a.policy_against ? resolve_setup(a.board, {*a.policy_against}, 1, 1).options
+                                   : resolve_setup(a.board, list_words(*a.policy_against_menu, "--policy-against-menu"),
+                                                   1, max_menu_options)
+                                         .options;
+        if (s.options.size() > static_cast<std::size_t>(max_menu_options))
+            throw InputError(fmt::format("--policy-*: a menu holds at most {} options", max_menu_options));
+        std::vector<Chain> other;
+        for (const auto& o : against) other.push_back(build_chain(s.board, o));
+        policy = compare_policies(chains, other, s.order, false);
+        policy_view = render::DuelPolicyView{&s.board, s.order, &s.options, &against, &*policy, false, a.policy_distance};
+        in.policy = &*policy_view;
+    }
     deliver(a.out, render::report_html(in));
 }
 
@@ -173,6 +197,15 @@ const Registration reg(80, [](CLI::App& app) {
         ->check(range_in(0, limits::max_length));
     cmd->add_option("--balance-lengths", args->balance_lengths, "add the fairest lengths in LO..HI")
         ->check(range_in(1, limits::max_length));
+    cmd->add_option("--policy-against", args->policy_against,
+                    "add the optimal policy of choosing from the options each turn against this fixed option")
+        ->type_name("SPEC");
+    cmd->add_option("--policy-against-menu", args->policy_against_menu,
+                    "add the game of choosing each turn: the options against this menu SPEC,SPEC,...")
+        ->type_name("SPEC,...");
+    cmd->add_option("--policy-distance", args->policy_distance, "the policy map shows distances 1..D (default 0: all)")
+        ->check(whole_in(0, limits::max_length))
+        ->type_name("D");
     cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)")->check(whole_in(0, 4096));
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);

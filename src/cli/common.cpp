@@ -106,6 +106,29 @@ std::vector<std::string> option_words(const CLI::App& cmd) {
     return words;
 }
 
+std::vector<std::string> list_words(const std::string& text, const char* flag) {
+    std::vector<std::string> out;
+    std::string cur;
+    int depth = 0;
+    for (char ch : text) {
+        if (ch == '[' || ch == '{') ++depth;
+        if (ch == ']' || ch == '}') --depth;
+        if (depth < 0) throw InputError(fmt::format("{} '{}': a closing bracket without its opening one", flag, text));
+        if (ch == ',' && depth == 0) {
+            out.push_back(cur);
+            cur.clear();
+            continue;
+        }
+        cur += ch;
+    }
+    if (depth != 0) throw InputError(fmt::format("{} '{}': a bracket is not closed", flag, text));
+    out.push_back(cur);
+    for (const auto& w : out)
+        if (w.find_first_not_of(" \t") == std::string::npos)
+            throw InputError(fmt::format("{} '{}': an empty option in the list", flag, text));
+    return out;
+}
+
 void emit(const std::string& text) {
     std::fwrite(text.data(), 1, text.size(), stdout);
     if (!text.empty() && text.back() != '\n') std::fputc('\n', stdout);

@@ -59,6 +59,11 @@ void add_output_flags(CLI::App& cmd, OutputFlags& flags, std::vector<std::string
 // through write_atomically, else stdout, checked.
 void deliver(const OutputFlags& flags, const std::string& text);
 
+// Words of a comma-separated list of option specs or names (--menu); commas
+// inside brackets or braces belong to a spec ("[1,2,6],2d6" is two words).
+// `flag` names the flag in messages.
+std::vector<std::string> list_words(const std::string& text, const char* flag);
+
 // Prints to stdout and checks the write: a failure throws InputError.
 void emit(const std::string& text);
 

@@ -13,16 +13,6 @@ namespace {
 constexpr double pi = 3.14159265358979323846;
 using Points = std::vector<std::pair<double, double>>;
 
-// 1, 2 or 5 times a power of ten, giving about `count` steps over `range`.
-double nice_step(double range, int count) {
-    if (!(range > 0)) return 1;
-    double raw = range / count;
-    double p = std::pow(10.0, std::floor(std::log10(raw)));
-    for (double m : {1.0, 2.0, 5.0, 10.0})
-        if (m * p >= raw) return m * p;
-    return 10 * p;
-}
-
 // Breaks a list of words into lines of at most `width` characters.
 std::vector<std::string> wrap(const std::vector<std::string>& words, const std::string& sep, std::size_t width) {
     std::vector<std::string> lines;
@@ -55,6 +45,16 @@ svg::Element background(double w, double h) {
 svg::Element tooltip(std::string s) { return svg::Element("title").content(std::move(s)); }
 
 }  // namespace
+
+// 1, 2 or 5 times a power of ten, giving about `count` steps over `range`.
+double nice_step(double range, int count) {
+    if (!(range > 0)) return 1;
+    double raw = range / count;
+    double p = std::pow(10.0, std::floor(std::log10(raw)));
+    for (double m : {1.0, 2.0, 5.0, 10.0})
+        if (m * p >= raw) return m * p;
+    return 10 * p;
+}
 
 const std::vector<std::string>& palette() {
     // Okabe & Ito, "Color Universal Design" (2008): distinguishable with the

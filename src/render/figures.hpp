@@ -29,6 +29,9 @@ svg::Element sweep_figure(const SweepResult& r, std::size_t variant = 0);
 // names[i] and dist[i] belong together; p_never[i] = P(never finishing).
 svg::Element distribution_figure(const std::vector<std::string>& names, const std::vector<Distribution>& dist);
 
+// 1, 2 or 5 times a power of ten, giving about `count` steps over `range` (axis ticks).
+double nice_step(double range, int count);
+
 // Shown percentages in figures: two decimals ("12.34%"), "<0.01%" for tiny positive values.
 std::string figure_percent(double p);
 

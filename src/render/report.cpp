@@ -291,6 +291,7 @@ std::string report_html(const ReportInput& in) {
     if (in.tournament) tournament_sections(h, in);
     if (in.sweep) sweep_section(h, in);
     race_sections(h, in);
+    if (in.policy) h += policy_section_html(*in.policy);
     h += "<footer>Written by overshoot " + escape(version) +
          ". Every probability carries a proven error bound; see docs/method.md.</footer>\n";
     h += "</main>\n</body>\n</html>\n";

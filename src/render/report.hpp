@@ -13,6 +13,7 @@
 #include "race/choice.hpp"
 #include "race/several_pieces.hpp"
 #include "race/balance.hpp"
+#include "render/policy.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/tournament.hpp"
 
@@ -33,6 +34,8 @@ struct ReportInput {
     const ChoiceResult* choice = nullptr;
     const HeadStartResult* head_starts = nullptr;
     const LengthsResult* fair_lengths = nullptr;
+    // Choosing the option every turn (the report's options are A's menu).
+    const DuelPolicyView* policy = nullptr;
 };
 
 std::string report_html(const ReportInput& in);

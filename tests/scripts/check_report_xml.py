@@ -136,7 +136,8 @@ def main():
         # 5. The HTML report, with the several-piece sections asked for on a short board.
         page = os.path.join(tmp, "report.html")
         run(binary, "report", "1d6", "2d6", "3d6", "--length", "40", "--lengths", "20..60", "--race",
-            "--choose", "2", "--balance-starts", "0..3", "--balance-lengths", "30..50", "-o", page)
+            "--choose", "2", "--balance-starts", "0..3", "--balance-lengths", "30..50",
+            "--policy-against", "2d6", "--policy-distance", "20", "-o", page)
         with open(page, encoding="utf-8") as f:
             doc = f.read()
         p = Page()
@@ -149,12 +150,21 @@ def main():
         check(not p.external, f"nothing fetched: {p.external[:3]}")
         check(p.tags.get("style", 0) == 1 and p.tags.get("link", 0) == 0, "CSS inline, no stylesheet link")
         svgs = re.findall(r"<svg .*?</svg>", doc, flags=re.S)
-        check(len(svgs) == 3, f"three inline figures (found {len(svgs)})")
+        check(len(svgs) == 4, f"four inline figures (found {len(svgs)})")
         for s in svgs:
             ET.fromstring(s)  # every inline figure is well-formed XML on its own
         for sec in ("rules", "profiles", "matrix", "digraph", "cycles", "counters", "equilibrium", "sweep",
-                    "race", "choice", "balance"):
+                    "race", "choice", "balance", "policy"):
             check(f'<section id="{sec}">' in doc, f"report has the {sec} section")
+        # Policy section against policy --json, and its map as a stand-alone figure.
+        pj = json.loads(run(binary, "policy", "--length", "40", "--menu", "1d6,2d6,3d6", "--against", "2d6",
+                            "--json").stdout)
+        check(f"<td>adaptive</td><td>{100 * pj['p_a_wins']:.4f}%</td>" in doc, "policy section shows P(A wins)")
+        pol = os.path.join(tmp, "policy.svg")
+        run(binary, "policy", "--length", "40", "--menu", "1d6,2d6,3d6", "--against", "2d6", "--format", "svg", "-o", pol)
+        texts = svg_texts(parse_svg_file(pol)[0])
+        for name in ("1d6", "2d6", "3d6"):
+            check(name in texts, f"policy figure's legend names {name}")
         # Race section against race --json (same board, same order).
         rj = json.loads(run(binary, "race", "1d6", "2d6", "3d6", "--length", "40", "--json").stdout)
         for name, pw in rj["p_wins"].items():
@@ -164,7 +174,7 @@ def main():
         page2 = os.path.join(tmp, "plain.html")
         run(binary, "report", "1d6", "2d6", "--length", "30", "-o", page2)
         plain = open(page2, encoding="utf-8").read()
-        for sec in ("sweep", "race", "choice", "balance"):
+        for sec in ("sweep", "race", "choice", "balance", "policy"):
             check(f'<section id="{sec}">' not in plain, f"plain report has no {sec} section")
 
         # 7. Bad input: one line, exit 2, no file written.
