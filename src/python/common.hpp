@@ -73,5 +73,7 @@ void run_interruptible(const std::function<void()>& work, std::atomic<bool>* sto
 
 void bind_options(py::module_& m);
 void bind_duels(py::module_& m);
+void bind_races(py::module_& m);   // race, certify, check
+void bind_sweeps(py::module_& m);  // sweep, hunt
 
 }  // namespace overshoot::python

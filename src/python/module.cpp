@@ -198,8 +198,8 @@ names of the scenario's options or Option objects; with none, the scenario's.)do
     m.def(
         "set_memory_limit",
         [](long long mib) {
-            if (mib < 1) throw InputError("the memory limit must be at least 1 MiB");
-            if (mib > (1LL << 43)) throw InputError(fmt::format("memory limit {}: at most {} MiB", mib, 1LL << 43));
+            if (mib < 1 || mib > limits::max_memory_mib)
+                throw InputError(fmt::format("memory limit {}: expected 1..{} MiB", mib, limits::max_memory_mib));
             limits::set_memory_bytes(static_cast<std::uint64_t>(mib) << 20);
         },
         py::arg("mib"), "Caps the memory one computation may plan to use (MiB; default 4096), as --memory-limit.");
@@ -229,4 +229,6 @@ PYBIND11_MODULE(_core, m) {
     });
     python::bind_options(m);
     python::bind_duels(m);
+    python::bind_races(m);
+    python::bind_sweeps(m);
 }

@@ -111,7 +111,6 @@ def test_option_and_board_objects():
 
 @pytest.mark.parametrize("call, words", [
     (lambda: overshoot.duel("1d6", "2x6", length=100), ["duel", "1d6", "2x6", "--length", 100]),
-    (lambda: overshoot.duel("1d6", "2d6", length=0), ["duel", "1d6", "2d6", "--length", 0]),
     (lambda: overshoot.duel("1d6", "2d6"), ["duel", "1d6", "2d6"]),
     (lambda: overshoot.duel("1d6", "2d6", length=9, jumps=["3:3"]), ["duel", "1d6", "2d6", "--length", 9, "--jump", "3:3"]),
     (lambda: overshoot.tournament("1d6", "1d6", length=9), ["tournament", "1d6", "1d6", "--length", 9]),
@@ -124,6 +123,15 @@ def test_errors_are_the_cli_message(call, words):
         call()
     assert str(e.value) == cli_error(*words)
     assert not isinstance(e.value, overshoot.LimitError)
+
+
+def test_board_errors_are_the_library_message():
+    # The CLI refuses --length 0 in its flag check; the library's own message is one line too.
+    with pytest.raises(ValueError) as e:
+        overshoot.duel("1d6", "2d6", length=0)
+    assert "length" in str(e.value) and "\n" not in str(e.value)
+    with pytest.raises(TypeError):
+        overshoot.duel("1d6", 6, length=10)
 
 
 def test_limits_raise_their_own_type():
