@@ -12,7 +12,8 @@
 #include "race/duel.hpp"
 #include "race/exact.hpp"
 #include "render/exact.hpp"
-#include "render/race.hpp"
+#include "render/duel.hpp"
+#include "render/profile.hpp"
 #include "render/tournament.hpp"
 #include "tournament/tournament.hpp"
 

@@ -9,9 +9,9 @@
 #include "core/error.hpp"
 #include "core/io.hpp"
 #include "python/common.hpp"
-#include "race/multi.hpp"
+#include "race/several_pieces.hpp"
 #include "render/certificate.hpp"
-#include "render/multi.hpp"
+#include "render/several_pieces.hpp"
 
 namespace overshoot::python {
 

@@ -8,9 +8,11 @@
 #include "core/error.hpp"
 #include "python/common.hpp"
 #include "render/sweep.hpp"
-#include "sweep/family.hpp"
-#include "sweep/hunt.hpp"
-#include "sweep/lengths.hpp"
+#include "core/family.hpp"
+#include "hunt/hunt.hpp"
+#include "hunt/spec.hpp"
+#include "lengths/lengths.hpp"
+#include "lengths/method.hpp"
 #include "sweep/sweep.hpp"
 
 namespace overshoot::python {
