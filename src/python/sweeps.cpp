@@ -310,7 +310,7 @@ intervals where it holds and its strength.)doc")
         py::arg("checkpoint") = py::none(), py::arg("resume") = false, py::arg("progress") = py::none(),
         R"doc(hunt(*families, lengths, step=1, variants=None, cycle_length=3, min_strength=0, require=None, list=100, method="auto", threads=0, checkpoint=None, resume=False, progress=None) -> HuntResult
 
-Over a family of options ("1..3d{4,6,8}", docs/sweep.md), every length and rule
+Over a family of options ("dice(count=1..3, sides=4,6,8)", docs/sweep.md), every length and rule
 variant ((overshoot, order) pairs, simultaneous or coin), the intransitive sets
 of cycle_length options, ranked by strength, as `overshoot hunt --json`.
 progress(done, total) is called about ten times a second while cells are

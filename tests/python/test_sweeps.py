@@ -48,8 +48,8 @@ def test_sweep_errors():
 
 def test_hunt_matches_cli():
     seen = []
-    h = overshoot.hunt("1..3d{4,6}", lengths=(10, 60), progress=lambda d, t: seen.append((d, t)))
-    doc = cli_json("hunt", "1..3d{4,6}", "--lengths", "10..60")
+    h = overshoot.hunt("dice(count=1..3, sides=4,6)", lengths=(10, 60), progress=lambda d, t: seen.append((d, t)))
+    doc = cli_json("hunt", "dice(count=1..3, sides=4,6)", "--lengths", "10..60")
     assert same_bytes(h, doc)
     assert h.complete and len(h.cycles) == len(doc["cycles"])
     # The last report says every cell is done.
@@ -61,7 +61,7 @@ import sys, overshoot
 def progress(done, total):
     if done:
         print("running", flush=True)
-overshoot.hunt("1..4d{4,6,8,10,12}", lengths=(10, 1500), checkpoint=sys.argv[1], threads=1, progress=progress)
+overshoot.hunt("dice(count=1..4, sides=4,6,8,10,12)", lengths=(10, 1500), checkpoint=sys.argv[1], threads=1, progress=progress)
 print("finished", flush=True)
 """
 
@@ -86,5 +86,5 @@ def test_sigint_stops_a_hunt_cleanly(tmp):
     assert os.path.getsize(ckpt) > 0
     # Resuming from the checkpoint finishes the work (that a resumed hunt gives
     # the uninterrupted hunt's bytes is tests/scripts/check_kill_resume.py's check).
-    resumed = overshoot.hunt("1..4d{4,6,8,10,12}", lengths=(10, 1500), checkpoint=ckpt, resume=True)
+    resumed = overshoot.hunt("dice(count=1..4, sides=4,6,8,10,12)", lengths=(10, 1500), checkpoint=ckpt, resume=True)
     assert resumed.complete and resumed.pairs_known == resumed.pairs_total
