@@ -98,9 +98,9 @@ pairs[p] = (a, b) (a over b) at lengths[k]; error_bound likewise.)doc")
         })
         .def_property_readonly("margin", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.margin(); }); })
         .def_property_readonly("error_bound", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.error_bound(); }); })
-        .def_property_readonly("p_a_wins", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.win; }); })
-        .def_property_readonly("p_b_wins", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.loss; }); })
-        .def_property_readonly("p_tie", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.tie; }); })
+        .def_property_readonly("p_a_wins", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.p_a_wins; }); })
+        .def_property_readonly("p_b_wins", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.p_b_wins; }); })
+        .def_property_readonly("p_tie", [](const VariantSweep& v) { return per_pair(v, [](const LengthOutcome& o) { return o.p_tie; }); })
         .def_property_readonly(
             "condorcet_winner",
             [](const VariantSweep& v) {
