@@ -25,14 +25,4 @@ export UBSAN_OPTIONS="halt_on_error=1:print_stacktrace=1"
 budget="${SANITIZE_SECONDS:-600}"
 set -- --test-dir build-asan --output-on-failure -j"$(nproc)" --timeout 300
 [ -n "${SANITIZE_EXCLUDE:-}" ] && set -- "$@" -E "$SANITIZE_EXCLUDE"
-start=$(date +%s)
-if ! timeout "$budget" ctest "$@"; then
-    elapsed=$(( $(date +%s) - start ))
-    if [ "$elapsed" -ge "$budget" ]; then
-        echo "sanitize: the test run exceeded its budget of $budget s" >&2
-    else
-        echo "sanitize: tests failed under ASan/UBSan (reports above)" >&2
-    fi
-    exit 1
-fi
-echo "sanitize: all tests pass under ASan + UBSan in $(( $(date +%s) - start )) s"
+within_budget sanitize "$budget" "tests failed under ASan/UBSan (reports above)" ctest "$@"

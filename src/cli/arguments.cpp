@@ -109,7 +109,7 @@ std::pair<int, int> parse_range(const std::string& text, const char* what) {
 }
 
 // 2^43 MiB is 2^63 bytes: the largest cap whose shift to bytes cannot wrap.
-constexpr long long max_memory_mib = 1LL << 43;
+using limits::max_memory_mib;
 
 CLI::Option* add_memory_limit(CLI::App& cmd, std::optional<long long>& mib) {
     return cmd

@@ -2,15 +2,14 @@
 #include <fmt/format.h>
 
 #include <cstdio>
-#include <fstream>
 #include <memory>
-#include <sstream>
 
 #include "certify/certificate.hpp"
 #include "cli/arguments.hpp"
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
+#include "core/io.hpp"
 #include "render/certificate.hpp"
 
 namespace overshoot::cli {
@@ -23,11 +22,7 @@ struct CheckArgs {
 };
 
 void run(const CheckArgs& a) {
-    std::ifstream in(a.file, std::ios::binary);
-    if (!in) throw InputError(fmt::format("{}: cannot be read", a.file));
-    std::stringstream ss;
-    ss << in.rdbuf();
-    const std::string text = ss.str();
+    const std::string text = read_file(a.file);
     Certificate cert = parse_certificate(text, a.file);  // malformed: exit 2
     CheckReport rep = check_certificate(cert, text, a.threads);
     deliver(a.out, a.out.chosen() == "json" ? render::check_json(cert, rep).dump(2) : render::check_text(cert, rep));

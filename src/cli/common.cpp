@@ -39,63 +39,16 @@ void add_board_flags(CLI::App& cmd, BoardFlags& f, bool with_order) {
 Setup resolve_setup(const BoardFlags& f, const std::vector<std::string>& words, std::size_t min_options,
                     std::size_t max_options) {
     apply_memory_limit(f.memory_mib);
-    Scenario sc;
-    if (f.scenario) sc = load_scenario(*f.scenario);
-    std::optional<int> length = f.length ? f.length : sc.length;
-    if (!length)
-        throw InputError("no board length: give --length N or a scenario with [board] length");
-    Overshoot rule = f.overshoot ? parse_overshoot(*f.overshoot) : sc.rule.value_or(Overshoot::stay);
-    std::vector<Jump> jumps;
-    if (f.jump_option && f.jump_option->count() > 0) {
-        for (const auto& j : f.jumps) jumps.push_back(parse_jump(j));
-    } else if (sc.jumps) {
-        jumps = *sc.jumps;
-    }
-    Setup s;
-    try {
-        s.board = make_board(*length, rule, jumps);
-    } catch (const InputError& e) {
-        if (f.scenario && !f.length && !(f.jump_option && f.jump_option->count() > 0))
-            throw InputError(fmt::format("{}: {}", *f.scenario, e.what()));
-        throw;
-    }
-    s.order = f.order ? parse_order(*f.order) : sc.order.value_or(Order::simultaneous);
-    if (words.empty()) {
-        for (const auto& ns : sc.options) {
-            try {
-                s.options.push_back(parse_option(ns.spec, ns.name));
-            } catch (const InputError& e) {
-                throw InputError(fmt::format("{}: option '{}': {}", sc.source, ns.name, e.what()));
-            }
-        }
-    } else {
-        for (const auto& w : words) {
-            bool found = false;
-            for (const auto& ns : sc.options) {
-                if (ns.name == w) {  // a scenario name wins over a spec spelled the same
-                    s.options.push_back(parse_option(ns.spec, ns.name));
-                    found = true;
-                    break;
-                }
-            }
-            if (!found) {
-                try {
-                    s.options.push_back(parse_option(w));
-                } catch (const InputError& e) {
-                    if (!sc.options.empty() && w.find_first_of("0123456789[{") == std::string::npos)
-                        throw InputError(fmt::format("'{}' is neither an option of {} nor a valid spec ({})", w,
-                                                     sc.source, e.what()));
-                    throw;
-                }
-            }
-        }
-    }
-    if (s.options.size() < min_options)
-        throw InputError(fmt::format("this command needs at least {} option{} (spec or scenario name), got {}",
-                                     min_options, min_options == 1 ? "" : "s", s.options.size()));
-    if (s.options.size() > max_options)
-        throw InputError(fmt::format("this command takes at most {} options, got {}", max_options, s.options.size()));
-    return s;
+    SetupRequest r;
+    r.length = f.length;
+    r.overshoot = f.overshoot;
+    if (f.jump_option && f.jump_option->count() > 0) r.jumps = f.jumps;
+    r.order = f.order;
+    r.scenario = f.scenario;
+    r.words = words;
+    r.min_options = min_options;
+    r.max_options = max_options;
+    return resolve_setup(r);
 }
 
 std::vector<std::string> option_words(const CLI::App& cmd) {

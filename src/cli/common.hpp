@@ -9,6 +9,7 @@
 #include "core/board.hpp"
 #include "core/option.hpp"
 #include "core/scenario.hpp"
+#include "core/setup.hpp"
 
 namespace overshoot::cli {
 
@@ -24,15 +25,9 @@ struct BoardFlags {
 
 void add_board_flags(CLI::App& cmd, BoardFlags& flags, bool with_order = true);
 
-struct Setup {
-    Board board;
-    Order order = Order::simultaneous;
-    std::vector<Option> options;
-};
-
-// Merges scenario and flags (flags win; --jump replaces the scenario's list),
-// resolves each positional word as a scenario name or a spec, and validates.
-// With no positional words, every option of the scenario is used.
+// Sets the memory cap from --memory-limit, then merges scenario and flags
+// (core/setup.hpp: flags win; --jump replaces the scenario's list). With no
+// positional words, every option of the scenario is used.
 Setup resolve_setup(const BoardFlags& flags, const std::vector<std::string>& words, std::size_t min_options,
                     std::size_t max_options);
 

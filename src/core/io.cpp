@@ -9,6 +9,8 @@
 #include <cstdio>
 #include <cstring>
 #include <filesystem>
+#include <fstream>
+#include <sstream>
 
 #include "core/error.hpp"
 
@@ -112,6 +114,14 @@ void write_atomically(const std::string& path, std::string_view content) {
     const int err = errno;
     ::close(dfd);
     if (!synced) fail(path, "cannot flush its folder to disk", err);
+}
+
+std::string read_file(const std::string& path) {
+    std::ifstream in(path, std::ios::binary);
+    if (!in) throw InputError(fmt::format("{}: cannot be read", path));
+    std::stringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
 }
 
 }  // namespace overshoot

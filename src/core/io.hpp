@@ -19,6 +19,10 @@ void write_atomically(const std::string& path, std::string_view content);
 // texts resolve against the link's folder); `path` itself when it is no link.
 std::string link_target(const std::string& path);
 
+// The whole content of a file, as bytes; throws InputError "PATH: cannot be
+// read" when it cannot be opened.
+std::string read_file(const std::string& path);
+
 // Writes all of `content` to an open descriptor; false (errno set) on failure.
 bool write_all(int fd, std::string_view content);
 

@@ -18,6 +18,8 @@ inline constexpr std::uint64_t max_spec_work = 200'000'000;
 // Default cap on the memory a single computation may plan to use (bytes);
 // raised with --memory-limit.
 inline constexpr std::uint64_t default_memory_bytes = std::uint64_t{4} << 30;
+// The largest cap that can be asked for, in MiB: more would wrap the byte count.
+inline constexpr long long max_memory_mib = 1LL << 43;
 
 }  // namespace overshoot::limits
 
