@@ -60,7 +60,7 @@ TEST_CASE("100 squares, stay: one d6 beats two d6 about 51% of the time", "[race
     Pair p = setup("1d6", "2d6", 100);
     for (DuelMethod m : {DuelMethod::automatic, DuelMethod::series}) {
         DuelResult r = run(p, Order::simultaneous, m);
-        INFO("method " << r.method << " P(1d6 wins) " << static_cast<double>(r.p_a_wins));
+        INFO("method " << to_string(r.method) << " P(1d6 wins) " << static_cast<double>(r.p_a_wins));
         CHECK(std::round(100 * static_cast<double>(r.p_a_wins)) == 51);
         CHECK(r.a_beats_b());
         CHECK(r.error_bound() <= 1e-12);

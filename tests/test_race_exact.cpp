@@ -127,7 +127,7 @@ TEST_CASE("exact elimination on small boards where pieces move backward", "[exac
         Chain ca = build_chain(b, parse_option("1d4")), cb = build_chain(b, parse_option("2d3"));
         Order order = round % 2 ? Order::simultaneous : Order::a_first;
         ExactDuel e = exact_duel(ca, cb, order);
-        CHECK(e.method == "exact elimination");
+        CHECK(e.method == ExactMethod::elimination);
         DuelSettings s;
         s.method = DuelMethod::series;
         DuelResult r = duel(ca, cb, order, s);

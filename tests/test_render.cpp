@@ -4,9 +4,13 @@
 
 #include <string>
 
+#include "chain/chain.hpp"
+#include "chain/profile.hpp"
 #include "core/board.hpp"
+#include "core/option.hpp"
 #include "render/document.hpp"
 #include "render/format.hpp"
+#include "render/profile.hpp"
 
 using namespace overshoot;
 
@@ -31,4 +35,15 @@ TEST_CASE("render: CSV cells are quoted when a reader would misread them", "[ren
     CHECK(render::csv_cell("#1") == "\"#1\"");
     CHECK(render::csv_cell(" padded") == "\" padded\"");
     CHECK(render::csv_cell("") == "\"\"");
+}
+
+TEST_CASE("render: the distribution CSV quotes option names", "[render]") {
+    // A custom die's name holds commas; unquoted, a CSV reader would split it.
+    const Board b = make_board(12, Overshoot::stay, {});
+    Option o = parse_option("{1:1,2:1}");
+    const Chain c = build_chain(b, o);
+    const std::string csv = render::distribution_csv({{&o, distribution(c, 1e-12, 1000)}});
+    CHECK(csv.rfind("option,turn,p,cumulative\n\"{1:1,2:1}\",1,", 0) == 0);
+    CHECK(csv.find("\n\"{1:1,2:1}\",never,") != std::string::npos);
+    CHECK(csv.find("\n{1:1") == std::string::npos);
 }

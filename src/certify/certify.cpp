@@ -150,7 +150,7 @@ void residual_values(CertDuel& d, ResidualWriting& w, const std::optional<ExactD
         d.interval_method += " (no exact fractions: " + why + ")";
         return;
     }
-    d.exact_method = e->method;
+    d.exact_method = to_string(e->method);
     const mpq_class x[5] = {e->p_a_wins, e->p_b_wins, e->p_tie, e->p_neither, e->margin()};
     for (int i = 0; i < 5; ++i) {
         if (x[i] < b.centre[i] - b.radius[i] || x[i] > b.centre[i] + b.radius[i])
@@ -240,11 +240,11 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
         d.p_tie = interval(r.p_tie, bound, true);
         d.p_neither = interval(r.p_neither, bound, true);
         d.margin = interval(r.p_a_wins - r.p_b_wins, 2 * bound, false);
-        d.interval_method = r.method + (r.bound_proven ? "" : " (bound not proven: interval widened to the trivial one)") +
+        d.interval_method = to_string(r.method) + (r.bound_proven ? "" : " (bound not proven: interval widened to the trivial one)") +
                             (use_residual[i] ? " (no residual certificate: " + why[i] + ")" : "");
         if (exact[i]) {
             const ExactDuel& e = *exact[i];
-            d.exact_method = e.method;
+            d.exact_method = to_string(e.method);
             auto set = [](CertValue& v, const mpq_class& q) {
                 v.exact = q;
                 v.decimal = decimal_string(q, 6);
@@ -254,8 +254,8 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
             set(d.p_tie, e.p_tie);
             set(d.p_neither, e.p_neither);
             set(d.margin, e.margin());
-            const int s = sgn(e.margin());
-            d.verdict = s > 0 ? Verdict::a_beats_b : s < 0 ? Verdict::b_beats_a : Verdict::undecided;
+            const int sign = sgn(e.margin());
+            d.verdict = sign > 0 ? Verdict::a_beats_b : sign < 0 ? Verdict::b_beats_a : Verdict::undecided;
         } else {
             d.verdict = d.margin.lo > 0 ? Verdict::a_beats_b : d.margin.hi < 0 ? Verdict::b_beats_a : Verdict::undecided;
         }

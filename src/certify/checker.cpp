@@ -260,7 +260,7 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
                         fail(fmt::format("{}: verdict '{}' is wrong: re-derived '{}'", where(d), to_string(d.verdict),
                                          to_string(ev)));
                     detail += fmt::format("inside the proven intervals ({}, bound {:.2g}); margin {} in [{:.12g}, {:.12g}]",
-                                          r.method, static_cast<double>(bound), d.margin.decimal, lo2, hi2);
+                                          to_string(r.method), static_cast<double>(bound), d.margin.decimal, lo2, hi2);
                 }
             }
             rep.passed.push_back({where(d), detail});

@@ -214,7 +214,7 @@ LiftedDuel lifted_duel(const Chain& a, const Chain& b, Order order) {
     LiftedDuel res;
     const std::vector<Mover> parts = parts_of(order);
     ExactDuel d;
-    d.method = "exact lifting";
+    d.method = ExactMethod::lifting;
     for (Mover mv : parts) {
         const ProductChain c = build_product_chain(a, b, mv);
         std::optional<Part> p = lift_part(c, res.refusal);

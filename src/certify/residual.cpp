@@ -14,6 +14,7 @@
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "race/outcome.hpp"
 
 namespace overshoot {
 
@@ -30,17 +31,12 @@ std::string_view to_string(Mover m) {
 }
 
 std::vector<Mover> parts_of(Order order) {
-    switch (order) {
-        case Order::simultaneous:
-            return {Mover::both};
-        case Order::a_first:
-            return {Mover::a};
-        case Order::b_first:
-            return {Mover::b};
-        case Order::coin:
-            return {Mover::a, Mover::b};
-    }
-    return {};
+    const OrderedRaces races = needed_races(order);
+    std::vector<Mover> out;
+    if (races.simultaneous) out.push_back(Mover::both);
+    if (races.a_first) out.push_back(Mover::a);
+    if (races.b_first) out.push_back(Mover::b);
+    return out;
 }
 
 namespace {

@@ -10,13 +10,11 @@
 #include <utility>
 #include <vector>
 
+#include "core/numbers.hpp"
+
 namespace overshoot::cli {
 
-// Exactly one decimal whole number (optional sign, no spaces, no 0x), else nullopt.
-std::optional<long long> whole_number(std::string_view text);
-
-// "LO..HI" or one number N (meaning N..N); nullopt when malformed.
-std::optional<std::pair<long long, long long>> number_range(std::string_view text);
+// whole_number and number_range (core/numbers.hpp) read every number.
 
 // Validators: a whole number in lo..hi; a range LO..HI with lo <= LO <= HI <= hi;
 // a real number in [lo, hi] (or (lo, hi) when `open`); one of `words`.

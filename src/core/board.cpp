@@ -3,10 +3,11 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <charconv>
+#include <limits>
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/numbers.hpp"
 
 namespace overshoot {
 
@@ -93,10 +94,9 @@ Jump parse_jump(std::string_view t) {
     auto bad = [&] { return InputError(fmt::format("jump '{}': expected FROM:TO with two square numbers", t)); };
     if (colon == std::string_view::npos) throw bad();
     auto num = [&](std::string_view s) {
-        int v = 0;
-        auto [p, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
-        if (ec != std::errc() || p != s.data() + s.size() || s.empty()) throw bad();
-        return v;
+        const auto v = whole_number(s);
+        if (!v || *v < std::numeric_limits<int>::min() || *v > std::numeric_limits<int>::max()) throw bad();
+        return static_cast<int>(*v);
     };
     return Jump{num(t.substr(0, colon)), num(t.substr(colon + 1))};
 }

@@ -4,7 +4,6 @@
 
 #include <algorithm>
 #include <cctype>
-#include <charconv>
 #include <functional>
 #include <map>
 #include <numeric>
@@ -13,6 +12,7 @@
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/numbers.hpp"
 
 namespace overshoot {
 
@@ -62,12 +62,10 @@ public:
     }
 
     long long number(std::string_view s, long long lo, long long hi, std::string_view key) const {
-        long long v = 0;
-        auto [p, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
-        if (ec != std::errc() || p != s.data() + s.size())
-            fail(fmt::format("{}: '{}' is not a whole number", key, s));
-        if (v < lo || v > hi) fail(fmt::format("{}: {} is outside {}..{}", key, v, lo, hi));
-        return v;
+        const auto v = whole_number(s);
+        if (!v) fail(fmt::format("{}: '{}' is not a whole number", key, s));
+        if (*v < lo || *v > hi) fail(fmt::format("{}: {} is outside {}..{}", key, *v, lo, hi));
+        return *v;
     }
 
     // "4,6,8" / "1..6" / "0..3,6": sorted distinct numbers within lo..hi.

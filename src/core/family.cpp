@@ -3,13 +3,14 @@
 #include <fmt/format.h>
 
 #include <cctype>
-#include <charconv>
 #include <fstream>
+#include <limits>
 #include <set>
 #include <sstream>
 
 #include "core/constraint_family.hpp"
 #include "core/error.hpp"
+#include "core/numbers.hpp"
 
 namespace overshoot {
 
@@ -37,11 +38,10 @@ bool all_digits(std::string_view s) {
 }
 
 int to_int(std::string_view s, std::string_view item) {
-    int v = 0;
-    auto [p, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
-    if (ec != std::errc() || p != s.data() + s.size() || v < 1)
+    auto v = whole_number(s);
+    if (!v || *v < 1 || *v > std::numeric_limits<int>::max())
         throw InputError(fmt::format("family item '{}': '{}' is not a positive whole number", item, s));
-    return v;
+    return static_cast<int>(*v);
 }
 
 // "N", "N..M" -> list; empty text -> {1} when allow_empty.

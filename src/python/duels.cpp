@@ -166,7 +166,7 @@ asked for with exact=True, else None.)doc")
         .def_property_readonly("probability_error_bound", [](const D& d) { return static_cast<double>(d->result.bound); })
         .def_property_readonly("bound_proven", [](const D& d) { return d->result.bound_proven; })
         .def_property_readonly("target_met", [](const D& d) { return d->result.target_met; })
-        .def_property_readonly("method", [](const D& d) { return d->result.method; })
+        .def_property_readonly("method", [](const D& d) { return to_string(d->result.method); })
         .def_property_readonly("mean_rounds", [](const D& d) { return maybe(d->result.mean_rounds); })
         .def_property_readonly("median_rounds", [](const D& d) {
             return d->result.median_resolved ? maybe(d->result.median_rounds) : py::none();

@@ -64,7 +64,7 @@ first finishers; each within probability_error_bound.)doc")
         .def_property_readonly("p_neither", [](const R& r) { return static_cast<double>(r->result.p_neither); })
         .def_property_readonly("probability_error_bound", [](const R& r) { return static_cast<double>(r->result.bound); })
         .def_property_readonly("target_met", [](const R& r) { return r->result.target_met; })
-        .def_property_readonly("method", [](const R& r) { return r->result.method; })
+        .def_property_readonly("method", [](const R& r) { return std::string(to_string(r->result.method)); })
         .def("to_dict", [](const R& r) { return to_python(r->json()); },
              "The document `overshoot race --json` prints, as dicts and lists.");
 

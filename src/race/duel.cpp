@@ -34,6 +34,12 @@ std::string_view to_string(DuelMethod m) {
     return "?";
 }
 
+std::string to_string(const DuelMethods& m) {
+    std::string out(to_string(m.first));
+    if (m.second) (out += '+') += to_string(*m.second);
+    return out;
+}
+
 DuelMethod parse_duel_method(std::string_view t) {
     for (auto m : {DuelMethod::automatic, DuelMethod::pairs, DuelMethod::zone, DuelMethod::series,
                    DuelMethod::product})
@@ -49,7 +55,7 @@ struct Tally {
     long double bound = 0;
     bool target_met = true;
     bool proven = true;
-    std::string method;
+    DuelMethods method;
     std::optional<long long> median;  // rounds to the first finish, when found on the way
     bool median_done = false;
 };
@@ -96,7 +102,7 @@ Tally full_pairs(const Chain& a, const Chain& b, bool a_first) {
     r.bound = pt.relative_rounding;
     r.neither = std::max(0.0L, 1.0L - r.win - r.loss - r.tie);
     r.bound += gamma_ld(4);
-    r.method = "pairs";
+    r.method.first = DuelMethod::pairs;
     return r;
 }
 
@@ -144,7 +150,7 @@ std::optional<Tally> zone_method(const Chain& a, const Chain& b, bool a_first, l
     // The absorption pass has the same depth structure as the pair programme.
     r.bound += sa.rounding_bound() + sb.rounding_bound() + pt.relative_rounding +
                closure_rounding(n, std::max(a.max_move, b.max_move), support, sa.turn());
-    r.method = "zone";
+    r.method.first = DuelMethod::zone;
     // The median of R may lie past the prefix: keep stepping the two series.
     if (!r.median_done && r.win + r.loss + r.tie >= 0.5L) {
         while (!r.median_done && (sa.alive() > 0 || sb.alive() > 0) && sa.work() + sb.work() < 4 * budget + 100000000) {
@@ -180,7 +186,7 @@ Tally series_method(const Chain& a, const Chain& b, bool a_first, long double ta
     r.neither = sa.stuck() * sb.stuck();
     r.bound = sa.alive() + sb.alive() + sa.rounding_bound() + sb.rounding_bound() +
               gamma_ld(2 * sa.turn() + 8);
-    r.method = "series";
+    r.method.first = DuelMethod::series;
     return r;
 }
 
@@ -198,7 +204,7 @@ Tally product_method(const Chain& A, const Chain& B, bool a_first) {
         for (int b = 0; b < n; ++b)
             if (!both_stuck(a, b)) idx[static_cast<std::size_t>(a) * n + b] = count++;
     Tally r;
-    r.method = "product";
+    r.method.first = DuelMethod::product;
     r.proven = false;
     if (count == 0 || idx[0] < 0) {
         r.neither = 1;
@@ -368,7 +374,8 @@ DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings&
         m.bound = std::max(x.bound, y.bound) + gamma_ld(2);
         m.proven = x.proven && y.proven;
         m.target_met = x.target_met && y.target_met;
-        m.method = x.method == y.method ? x.method : x.method + "+" + y.method;
+        m.method = x.method;
+        if (y.method != x.method) m.method.second = y.method.first;
         m.median = x.median;  // R = min(T_A, T_B) does not depend on the seats
         m.median_done = x.median_done;
         return m;

@@ -19,6 +19,14 @@ enum class DuelMethod {
     product,    // sparse LU of the product chain (small boards; independent check)
 };
 
+// The methods behind a result: under coin, `second` is the B-first race's
+// method when it differs from the A-first race's.
+struct DuelMethods {
+    DuelMethod first = DuelMethod::automatic;
+    std::optional<DuelMethod> second;
+    bool operator==(const DuelMethods&) const = default;
+};
+
 struct DuelSettings {
     DuelMethod method = DuelMethod::automatic;
     long double target = 1e-14L;  // truncation target for series-based methods
@@ -29,11 +37,11 @@ struct DuelSettings {
 struct DuelResult {
     long double p_a_wins = 0, p_b_wins = 0, p_tie = 0, p_neither = 0;
     // Each probability lies within `bound` of its true value (proven unless
-    // method is "product", whose bound is a residual estimate).
+    // the method is product, whose bound is a residual estimate).
     long double bound = 0;
     bool bound_proven = true;
     bool target_met = true;  // false when the work limit stopped a series early
-    std::string method;
+    DuelMethods method;
     double mean_rounds = 0;  // rounds until the first finish, given one happens
     std::optional<long long> median_rounds;
     bool median_resolved = true;
@@ -55,6 +63,7 @@ std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order orde
                                     const DuelSettings& settings = {}, int threads = 0);
 
 std::string_view to_string(DuelMethod m);
+std::string to_string(const DuelMethods& m);  // "zone", or "zone+series" under coin
 DuelMethod parse_duel_method(std::string_view text);
 
 }  // namespace overshoot

@@ -3,6 +3,7 @@
 // plus the pair programme on the two end zones left at that horizon.
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 #include "chain/absorption.hpp"
 #include "chain/series.hpp"
@@ -11,6 +12,7 @@
 #include "core/parallel.hpp"
 #include "core/selfcheck.hpp"
 #include "race/duel.hpp"
+#include "race/outcome.hpp"
 #include "race/closure.hpp"
 #include "race/pairs.hpp"
 
@@ -205,14 +207,14 @@ Sums closure(const Chain& ca, const Chain& cb, const Trace& a, const Trace& b, i
     return r;
 }
 
-DuelResult make_result(const Sums& s, long double bound, const std::string& method) {
+DuelResult make_result(const Sums& s, long double bound, DuelMethod method) {
     DuelResult d;
     d.p_a_wins = s.win;
     d.p_b_wins = s.loss;
     d.p_tie = s.tie;
     d.p_neither = std::max(0.0L, 1.0L - s.win - s.loss - s.tie);
     d.bound = bound;
-    d.method = method;
+    d.method.first = method;
     // Race lengths are not computed for matrices (duel() gives them).
     d.mean_rounds = std::nan("");
     d.median_resolved = false;
@@ -305,40 +307,44 @@ std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order orde
             }
             return p;
         };
-        const std::string method = forward ? "zone" : "series";
-        auto flip = [](Sums x) {
-            std::swap(x.win, x.loss);
-            return x;
+        const DuelMethod method = forward ? DuelMethod::zone : DuelMethod::series;
+        // Each ordered race is computed at most once; both cells of the pair
+        // follow the one turn-order rule of race/outcome.hpp.
+        struct Race {
+            Sums sums;
+            long double bound = 0;
         };
-        switch (order) {
-            case Order::simultaneous: {
-                long double bound;
-                Sums r = one(false, a, b, ca, cb, bound);
-                out[i * n + j] = make_result(r, bound, method);
-                out[j * n + i] = make_result(flip(r), bound, method);
-                break;
+        std::optional<Race> together, i_first, j_first;
+        auto race = [&](std::optional<Race>& slot, bool alternating, bool i_in_seat_a) {
+            if (!slot) {
+                Race r;
+                r.sums = i_in_seat_a ? one(alternating, a, b, ca, cb, r.bound) : one(alternating, b, a, cb, ca, r.bound);
+                slot = r;
             }
-            case Order::a_first:
-            case Order::b_first:
-            case Order::coin: {
-                long double b1, b2;
-                Sums x = one(true, a, b, ca, cb, b1);  // i moves first
-                Sums y = one(true, b, a, cb, ca, b2);  // j moves first
-                if (order == Order::coin) {
-                    Sums m{(x.win + y.loss) / 2, (x.loss + y.win) / 2, 0, (x.rounds + y.rounds) / 2};
-                    long double bound = std::max(b1, b2) + gamma_ld(2);
-                    out[i * n + j] = make_result(m, bound, method);
-                    out[j * n + i] = make_result(flip(m), bound, method);
-                } else {
-                    // a-first: the row option sits in seat A and moves first.
-                    Sums ij = order == Order::a_first ? x : flip(y);
-                    Sums ji = order == Order::a_first ? y : flip(x);
-                    out[i * n + j] = make_result(ij, order == Order::a_first ? b1 : b2, method);
-                    out[j * n + i] = make_result(ji, order == Order::a_first ? b2 : b1, method);
-                }
-                break;
-            }
-        }
+            return *slot;
+        };
+        auto flip = [](Race r) {
+            std::swap(r.sums.win, r.sums.loss);
+            return r;
+        };
+        auto coin = [](const Race& x, const Race& y) {
+            Sums m{(x.sums.win + y.sums.win) / 2, (x.sums.loss + y.sums.loss) / 2, 0,
+                   (x.sums.rounds + y.sums.rounds) / 2};
+            return Race{m, std::max(x.bound, y.bound) + gamma_ld(2)};
+        };
+        // The cell with option i in seat A (row i) or in seat B (row j).
+        auto cell = [&](bool i_is_a) {
+            Race r = by_turn_order(
+                order,
+                [&](bool swapped, bool alternating) {
+                    if (!alternating) return i_is_a ? race(together, false, true) : flip(race(together, false, true));
+                    return i_is_a != swapped ? race(i_first, true, true) : race(j_first, true, false);
+                },
+                flip, coin);
+            return make_result(r.sums, r.bound, method);
+        };
+        out[i * n + j] = cell(true);
+        out[j * n + i] = cell(false);
     });
     return out;
 }

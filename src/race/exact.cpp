@@ -13,6 +13,15 @@
 
 namespace overshoot {
 
+std::string_view to_string(ExactMethod m) {
+    switch (m) {
+        case ExactMethod::pair_programme: return "exact pair programme";
+        case ExactMethod::elimination: return "exact elimination";
+        case ExactMethod::lifting: return "exact lifting";
+    }
+    return "?";
+}
+
 namespace {
 
 std::array<mpq_class, 3> solve_ordered(const Chain& a, const Chain& b, bool a_first) {
@@ -36,7 +45,7 @@ std::string exact_refusal(const Chain& a, const Chain& b) {
 ExactDuel exact_duel(const Chain& a, const Chain& b, Order order) {
     if (std::string why = exact_refusal(a, b); !why.empty()) throw LimitError(why);
     ExactDuel r;
-    r.method = a.forward_only ? "exact pair programme" : "exact elimination";
+    r.method = a.forward_only ? ExactMethod::pair_programme : ExactMethod::elimination;
     using Outcome = std::array<mpq_class, 3>;  // win, loss, tie
     const Outcome v = by_turn_order(
         order, [&](bool swapped, bool alternating) { return swapped ? solve_ordered(b, a, alternating) : solve_ordered(a, b, alternating); },

@@ -21,9 +21,16 @@
 
 namespace overshoot {
 
+enum class ExactMethod {
+    pair_programme,  // forward-only boards: the pair programme in rationals
+    elimination,     // elsewhere: Gaussian elimination of the product chain
+    lifting,         // p-adic lifting of the product chain (certify/lifting.hpp)
+};
+std::string_view to_string(ExactMethod m);  // "exact pair programme", "exact elimination", "exact lifting"
+
 struct ExactDuel {
     mpq_class p_a_wins, p_b_wins, p_tie, p_neither;  // reduced, summing to 1
-    std::string method;                              // "exact pair programme" or "exact elimination"
+    ExactMethod method = ExactMethod::pair_programme;
     mpq_class margin() const { return p_a_wins - p_b_wins; }
 };
 

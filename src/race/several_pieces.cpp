@@ -21,6 +21,8 @@ RaceOrder parse_race_order(std::string_view t) {
 
 std::string_view to_string(RaceOrder o) { return o == RaceOrder::seated ? "seated" : "simultaneous"; }
 
+std::string_view to_string(RaceMethod m) { return m == RaceMethod::series_zone ? "series+zone" : "series"; }
+
 int resolve_start(const Board& board, int start) {
     if (start < 0 || start >= board.length)
         throw InputError(fmt::format("start square {}: must be in 0..{} on a board of length {}", start,
@@ -262,7 +264,7 @@ RaceResult race(const std::vector<const Chain*>& chains, const std::vector<int>&
     std::vector<long double> subset(1u << k, 0), w(1u << k, 0);
     std::vector<long double> f(k), s(k, 1), sp(k, 1), alive(k), stuck(k);
     RaceResult r;
-    r.method = "series";
+    r.method = RaceMethod::series;
     r.p_neither = -1;  // filled below
     const long double thr = cfg.target / (4 * k);
     long double extra_bound = 0;
@@ -325,7 +327,7 @@ RaceResult race(const std::vector<const Chain*>& chains, const std::vector<int>&
                 }
                 extra_bound = dropped + rel;
                 closed = true;
-                r.method = "series+zone";
+                r.method = RaceMethod::series_zone;
                 break;
             }
         }
@@ -428,7 +430,7 @@ std::optional<RaceResult> race_from_tracks(const std::vector<const PieceTrack*>&
     long double nei = 1;
     for (int j = 0; j < k; ++j) nei *= stuck[j];
     r.p_neither = nei;
-    r.method = "series";
+    r.method = RaceMethod::series;
     r.rounds = static_cast<int>(horizon);
     finish_result(r, subset, k);
     r.target_met = true;

@@ -25,6 +25,12 @@ enum class RaceOrder {
 RaceOrder parse_race_order(std::string_view text);  // throws InputError
 std::string_view to_string(RaceOrder order);
 
+enum class RaceMethod {
+    series,       // the per-turn series alone
+    series_zone,  // the series, closed by the end-zone programme (two pieces)
+};
+std::string_view to_string(RaceMethod m);  // "series", "series+zone"
+
 struct RaceSettings {
     long double target = 1e-14L;       // the series stops once the unresolved mass is below this
     long double wanted = 1e-12L;       // target_met is false when the proven bound exceeds this
@@ -45,7 +51,7 @@ struct RaceResult {
     // Each probability lies within `bound` of its true value (proven).
     long double bound = 0;
     bool target_met = true;  // bound <= settings.wanted
-    std::string method;      // "series" or "series+zone"
+    RaceMethod method = RaceMethod::series;
     int rounds = 0;          // rounds of the per-turn series
 };
 

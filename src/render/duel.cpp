@@ -28,7 +28,7 @@ std::string duel_text(const Board& board, Order order, const Option& a, const Op
     out += fmt::format("error bound on the margin: {:.2g} ({}, method {})\n", r.error_bound(),
                        r.bound_proven ? (r.target_met ? "proven" : "proven, target not reached within the work limit")
                                       : "estimated, not proven",
-                       r.method);
+                       to_string(r.method));
     if (std::isfinite(r.mean_rounds))
         out += fmt::format("race length: mean {:.3f} rounds to the first finish, median {}\n", r.mean_rounds,
                            r.median_resolved ? optional_int(r.median_rounds) : "unresolved");
@@ -54,7 +54,7 @@ nlohmann::json duel_json(const Board& board, Order order, const Option& a, const
     j["probability_error_bound"] = static_cast<double>(r.bound);
     j["bound_proven"] = r.bound_proven;
     j["target_met"] = r.target_met;
-    j["method"] = r.method;
+    j["method"] = to_string(r.method);
     j["mean_rounds"] = number_or_null(r.mean_rounds);
     j["median_rounds"] = r.median_resolved ? number_or_null(r.median_rounds) : nlohmann::json(nullptr);
     j["median_resolved"] = r.median_resolved;

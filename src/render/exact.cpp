@@ -9,11 +9,11 @@ namespace overshoot::render {
 nlohmann::json exact_duel_json(const ExactDuel& e) {
     return {{"p_a_wins", fraction_string(e.p_a_wins)}, {"p_b_wins", fraction_string(e.p_b_wins)},
             {"p_tie", fraction_string(e.p_tie)},       {"p_neither", fraction_string(e.p_neither)},
-            {"margin", fraction_string(e.margin())},   {"method", e.method}};
+            {"margin", fraction_string(e.margin())},   {"method", to_string(e.method)}};
 }
 
 std::string exact_duel_text(const Option& a, const Option& b, const ExactDuel& e) {
-    std::string out = fmt::format("\nexact values ({}):\n", e.method);
+    std::string out = fmt::format("\nexact values ({}):\n", to_string(e.method));
     auto line = [&](const std::string& what, const mpq_class& q) {
         out += fmt::format("  {:<22} {}  = {}\n", what, decimal_string(q, 12), fraction_string(q));
     };
@@ -34,7 +34,7 @@ nlohmann::json exact_matrix_json(const std::vector<std::optional<ExactDuel>>& m,
             const auto& e = m[i * n + j];
             w.push_back(e ? nlohmann::json(fraction_string(e->p_a_wins)) : nlohmann::json(nullptr));
             g.push_back(e ? nlohmann::json(fraction_string(e->margin())) : nlohmann::json(nullptr));
-            if (e && method.empty()) method = e->method;
+            if (e && method.empty()) method = to_string(e->method);
         }
         wins.push_back(w);
         margins.push_back(g);

@@ -83,11 +83,12 @@ nlohmann::json profile_json(const Board& board, Order order, const std::vector<P
 std::string distribution_csv(const std::vector<std::pair<const Option*, Distribution>>& ds) {
     std::string out = "option,turn,p,cumulative\n";
     for (const auto& [o, d] : ds) {
+        const std::string name = csv_cell(o->name);
         for (const auto& r : d.rows)
-            out += fmt::format("{},{},{:.17g},{:.17g}\n", o->name, r.turn, static_cast<double>(r.p),
+            out += fmt::format("{},{},{:.17g},{:.17g}\n", name, r.turn, static_cast<double>(r.p),
                                static_cast<double>(r.cumulative));
-        out += fmt::format("{},later,{:.17g},\n", o->name, static_cast<double>(d.remaining_finish));
-        out += fmt::format("{},never,{:.17g},\n", o->name, static_cast<double>(d.never));
+        out += fmt::format("{},later,{:.17g},\n", name, static_cast<double>(d.remaining_finish));
+        out += fmt::format("{},never,{:.17g},\n", name, static_cast<double>(d.never));
     }
     return out;
 }

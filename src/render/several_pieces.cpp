@@ -34,7 +34,7 @@ std::vector<std::string> picked_names(const std::vector<Option>& options, const 
 
 std::string bound_note(const RaceResult& r) {
     return fmt::format("error bound on each probability: {:.2g} (proven{}, method {})", d(r.bound),
-                       r.target_met ? "" : "; ABOVE the wanted 1e-12: the work limit or the accumulated rounding stopped it", r.method);
+                       r.target_met ? "" : "; ABOVE the wanted 1e-12: the work limit or the accumulated rounding stopped it", to_string(r.method));
 }
 
 // The shared first finishes, largest first: "1d6 & 2d6".
@@ -101,7 +101,7 @@ nlohmann::json race_result_json(const RaceResult& r, const std::vector<std::stri
     }
     j["shared_finishes"] = sh;
     j["target_met"] = r.target_met;
-    j["method"] = r.method;
+    j["method"] = to_string(r.method);
     j["series_rounds"] = r.rounds;
     return j;
 }

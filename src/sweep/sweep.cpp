@@ -3,12 +3,12 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <charconv>
 #include <cmath>
 #include <map>
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/numbers.hpp"
 #include "race/outcome.hpp"
 
 namespace overshoot {
@@ -20,31 +20,32 @@ std::vector<int> LengthGrid::lengths() const {
 }
 
 namespace {
-int parse_int(std::string_view t, std::string_view whole) {
-    int v = 0;
-    auto [p, ec] = std::from_chars(t.data(), t.data() + t.size(), v);
-    if (ec != std::errc() || p != t.data() + t.size())
-        throw InputError(fmt::format("--lengths '{}': '{}' is not a whole number", whole, t));
-    return v;
+long long parse_int(std::string_view t, std::string_view whole) {
+    auto v = whole_number(t);
+    if (!v) throw InputError(fmt::format("--lengths '{}': '{}' is not a whole number", whole, t));
+    return *v;
 }
 }  // namespace
 
 LengthGrid parse_lengths(std::string_view text, int step) {
-    LengthGrid g;
+    long long lo = 0, hi = 0;
     auto dots = text.find("..");
     if (dots == std::string_view::npos) {
-        g.lo = g.hi = parse_int(text, text);
+        lo = hi = parse_int(text, text);
     } else {
-        g.lo = parse_int(text.substr(0, dots), text);
-        g.hi = parse_int(text.substr(dots + 2), text);
+        lo = parse_int(text.substr(0, dots), text);
+        hi = parse_int(text.substr(dots + 2), text);
     }
-    g.step = step;
     if (step < 1) throw InputError(fmt::format("--step {}: the step must be at least 1", step));
-    if (g.lo < 1) throw InputError(fmt::format("--lengths '{}': lengths start at 1", text));
-    if (g.hi < g.lo) throw InputError(fmt::format("--lengths '{}': the range is empty (LO must not exceed HI)", text));
-    if (g.hi > limits::max_length)
-        throw LimitError(fmt::format("--lengths '{}': length {} exceeds the limit of {} squares", text, g.hi,
+    if (lo < 1) throw InputError(fmt::format("--lengths '{}': lengths start at 1", text));
+    if (hi < lo) throw InputError(fmt::format("--lengths '{}': the range is empty (LO must not exceed HI)", text));
+    if (hi > limits::max_length)
+        throw LimitError(fmt::format("--lengths '{}': length {} exceeds the limit of {} squares", text, hi,
                                      limits::max_length));
+    LengthGrid g;
+    g.lo = static_cast<int>(lo);
+    g.hi = static_cast<int>(hi);
+    g.step = step;
     return g;
 }
 

@@ -12,6 +12,7 @@
 extern "C" int LLVMFuzzerTestOneInput(const std::uint8_t* data, std::size_t size) {
     if (size > 256) return 0;  // arguments are typed by hand
     const std::string text(reinterpret_cast<const char*>(data), size);
+    using namespace overshoot;
     using namespace overshoot::cli;
     if (auto v = whole_number(text)) {
         if (whole_number(std::to_string(*v)) != v) std::abort();
