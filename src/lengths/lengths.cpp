@@ -172,50 +172,60 @@ LengthOutcome outcome_of(const DuelResult& r) {
     return o;
 }
 
+// What both board-by-board paths share: the results to fill, the length the
+// jumps are anchored to, and one board per length.
+struct BoardByBoard {
+    std::vector<PairLengths> out;
+    int anchor_length = 0;
+    DuelSettings duel;
+
+    BoardByBoard(const std::vector<int>& lengths, const std::vector<PairRequest>& requests, int reference) {
+        const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
+        anchor_length = reference > 0 ? reference : top;
+        out = board_results(requests, top);
+        duel.want_median = false;  // sweeps need the outcome only
+    }
+    Board board(int len, Overshoot rule, const std::vector<Jump>& jumps, JumpAnchor anchor) const {
+        return make_board(len, rule, anchored_jumps(jumps, anchor, anchor_length, len));
+    }
+};
+
 }  // namespace
 
 std::vector<PairLengths> board_by_board(const std::vector<Option>& options, Overshoot rule, Order order,
                                         const std::vector<Jump>& jumps, JumpAnchor anchor,
                                         const std::vector<int>& lengths, const std::vector<PairRequest>& requests,
                                         const LengthSettings& s, int reference) {
-    const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
-    const int anchor_length = reference > 0 ? reference : top;
-    std::vector<PairLengths> out = board_results(requests, top);
+    BoardByBoard run(lengths, requests, reference);
     std::atomic<std::size_t> computed{0};
-    DuelSettings ds;
-    ds.want_median = false;
     parallel_for(
         lengths.size(), s.threads,
         [&](std::size_t j) {
-                const int len = lengths[j];
-                Board board = make_board(len, rule, anchored_jumps(jumps, anchor, anchor_length, len));
-                std::vector<Chain> chains(options.size());
-                std::vector<char> built(options.size(), 0);
-                for (const auto& r : requests)
-                    for (std::size_t i : {r.a, r.b})
-                        if (!built[i]) {
-                            chains[i] = build_chain(board, options[i]);
-                            built[i] = 1;
-                        }
-                for (std::size_t k = 0; k < requests.size(); ++k) {
-                    out[k].by_length[len] = outcome_of(duel(chains[requests[k].a], chains[requests[k].b], order, ds));
-                }
-                ++computed;
+            const int len = lengths[j];
+            const Board board = run.board(len, rule, jumps, anchor);
+            std::vector<Chain> chains(options.size());
+            std::vector<char> built(options.size(), 0);
+            for (const auto& r : requests)
+                for (std::size_t i : {r.a, r.b})
+                    if (!built[i]) {
+                        chains[i] = build_chain(board, options[i]);
+                        built[i] = 1;
+                    }
+            for (std::size_t k = 0; k < requests.size(); ++k)
+                run.out[k].by_length[len] =
+                    outcome_of(duel(chains[requests[k].a], chains[requests[k].b], order, run.duel));
+            ++computed;
         },
         s.cancel);
-    for (auto& p : out) p.done = computed == lengths.size();  // false when the cancel flag stopped some lengths
-    return out;
+    for (auto& p : run.out) p.done = computed == lengths.size();  // false when the cancel flag stopped some lengths
+    return std::move(run.out);
 }
 
 std::vector<PairLengths> board_by_board_matrix(const std::vector<Option>& options, Overshoot rule, Order order,
                                                const std::vector<Jump>& jumps, JumpAnchor anchor,
                                                const std::vector<int>& lengths, const std::vector<PairRequest>& requests,
                                                const LengthSettings& s, int reference) {
-    const int top = lengths.empty() ? 0 : *std::max_element(lengths.begin(), lengths.end());
-    const int anchor_length = reference > 0 ? reference : top;
-    std::vector<PairLengths> out = board_results(requests, top);
-    DuelSettings ds;
-    ds.want_median = false;
+    BoardByBoard run(lengths, requests, reference);
     const std::size_t n = options.size();
     bool stopped = false;
     for (const int len : lengths) {
@@ -226,17 +236,16 @@ std::vector<PairLengths> board_by_board_matrix(const std::vector<Option>& option
         // Every option, whichever pairs are asked: duel_matrix shares one series
         // per option between pairs, so a pair's numbers would otherwise depend on
         // its company (and a resumed hunt would differ from an uninterrupted one).
-        const Board board = make_board(len, rule, anchored_jumps(jumps, anchor, anchor_length, len));
+        const Board board = run.board(len, rule, jumps, anchor);
         std::vector<Chain> chains;
         chains.reserve(n);
         for (const auto& o : options) chains.push_back(build_chain(board, o));
-        const std::vector<DuelResult> m = duel_matrix(chains, order, ds, s.threads);
-        for (std::size_t k = 0; k < requests.size(); ++k) {
-            out[k].by_length[len] = outcome_of(m[requests[k].a * n + requests[k].b]);
-        }
+        const std::vector<DuelResult> m = duel_matrix(chains, order, run.duel, s.threads);
+        for (std::size_t k = 0; k < requests.size(); ++k)
+            run.out[k].by_length[len] = outcome_of(m[requests[k].a * n + requests[k].b]);
     }
-    for (auto& p : out) p.done = !stopped;
-    return out;
+    for (auto& p : run.out) p.done = !stopped;
+    return std::move(run.out);
 }
 
 }  // namespace overshoot
