@@ -13,6 +13,7 @@
 
 #include "chain/absorption.hpp"
 #include "chain/chain.hpp"
+#include "chain/profile.hpp"
 #include "core/board.hpp"
 #include "core/error.hpp"
 #include "core/option.hpp"
@@ -163,14 +164,109 @@ TEST_CASE("policy: a piece alone", "[policy]") {
     CHECK(p.surest[38].option == 0);
 }
 
-TEST_CASE("policy: boards where pieces move backward are refused", "[policy]") {
+TEST_CASE("policy: on boards with loops a menu of one option is the ordinary duel within the bounds", "[policy]") {
+    // Exact references: the duel by exact elimination of the product chain
+    // (race/exact.hpp, itself checked against Python fractions in
+    // check_duel_fractions.py) and the engine's floating duel.
+    const Board boards[] = {make_board(12, Overshoot::bounce, {}), make_board(11, Overshoot::stay, {{9, 3}}),
+                            make_board(12, Overshoot::bounce, {{4, 8}, {10, 2}})};
+    for (const Board& board : boards)
+        for (Order order : kOrders) {
+            auto a = chains(board, {"2d3"});
+            auto b = chains(board, {"1d4"});
+            DuelPolicy p = solve_duel_policy(a, b, order, false);
+            ExactDuel e = exact_duel(a[0], b[0], order);
+            INFO(to_string(order) << " " << board.length);
+            CHECK(p.iterated);
+            CHECK(p.outcomes.bound > 0);
+            CHECK(p.outcomes.bound < 1e-12);
+            CHECK(std::fabs(static_cast<double>(p.outcomes.p_a_wins) - e.p_a_wins.get_d()) <= p.outcomes.bound);
+            CHECK(std::fabs(static_cast<double>(p.outcomes.p_b_wins) - e.p_b_wins.get_d()) <= p.outcomes.bound);
+            CHECK(std::fabs(static_cast<double>(p.outcomes.p_tie) - e.p_tie.get_d()) <= p.outcomes.bound);
+            CHECK(static_cast<double>(p.value_low) <= e.p_a_wins.get_d());
+            CHECK(e.p_a_wins.get_d() <= static_cast<double>(p.value_high));
+            const DuelResult r = duel(a[0], b[0], order, DuelSettings{.want_median = false});
+            CHECK(std::fabs(static_cast<double>(p.outcomes.p_a_wins - r.p_a_wins)) <=
+                  static_cast<double>(p.outcomes.bound + r.bound));
+        }
+}
+
+TEST_CASE("policy: on boards with loops a menu holding the opponent's option never does worse than the mirror duel",
+          "[policy]") {
+    const Board boards[] = {make_board(24, Overshoot::bounce, {}), make_board(22, Overshoot::stay, {{17, 6}})};
+    for (const Board& board : boards)
+        for (const char* opp : {"1d6", "2d6"})
+            for (Order order : kOrders) {
+                auto menu = chains(board, {"1d6", "2d6", "2d3"});
+                auto b = chains(board, {opp});
+                PolicyComparison c = compare_policies(menu, b, order, false);
+                const DuelResult mirror = duel(b[0], b[0], order, DuelSettings{.want_median = false});
+                INFO(opp << " " << to_string(order) << " " << board.length);
+                // The optimum is at least the mirror duel's P(A wins), and the
+                // found policy attains the optimum within the bounds.
+                CHECK(c.adaptive.value_high >= mirror.p_a_wins - mirror.bound);
+                CHECK(c.adaptive.outcomes.p_a_wins + c.adaptive.outcomes.bound >= mirror.p_a_wins - mirror.bound);
+                CHECK(c.adaptive.value_high - c.adaptive.value_low < 1e-11L);
+                for (const auto& f : c.fixed)
+                    CHECK(c.adaptive.value_high >= f.value - f.outcomes.bound);
+                CHECK(c.worth >= -1e-11L);
+            }
+}
+
+TEST_CASE("policy: on a bounce board the game of two equal menus is fair", "[policy]") {
+    const Board board = make_board(20, Overshoot::bounce, {});
+    auto menu = chains(board, {"1d6", "2d6", "3d6"});
+    DuelPolicy sim = solve_duel_policy(menu, menu, Order::simultaneous, false);
+    CHECK(sim.iterated);
+    CHECK(sim.value_low <= 0);
+    CHECK(sim.value_high >= 0);
+    CHECK(static_cast<double>(sim.value_high - sim.value_low) < 1e-12);
+    // Alternating: moving first is worth the same to either seat.
+    DuelPolicy af = solve_duel_policy(menu, menu, Order::a_first, false);
+    DuelPolicy bf = solve_duel_policy(menu, menu, Order::b_first, false);
+    CHECK(std::fabs(static_cast<double>(af.value + bf.value)) <= static_cast<double>(af.value_high - af.value_low +
+                                                                                     bf.value_high - bf.value_low));
+    DuelPolicy coin = solve_duel_policy(menu, menu, Order::coin, false);
+    CHECK(coin.value_low <= 0);
+    CHECK(coin.value_high >= 0);
+}
+
+TEST_CASE("policy: a piece alone on a bounce board", "[policy]") {
+    const Board board = make_board(30, Overshoot::bounce, {{20, 11}});
+    auto menu = chains(board, {"1d6", "2d6", "3d6"});
+    AlonePolicy p = solve_alone(menu, false);
+    CHECK(p.iterated);
+    // Each fixed option against the chain room's sparse LU (absorbing-chain
+    // equations): every option finishes surely here, so its mean given
+    // finishing is the expected number of rounds.
+    for (std::size_t i = 0; i < menu.size(); ++i) {
+        const Profile pr = profile(menu[i]);
+        INFO(i);
+        CHECK(std::fabs(static_cast<double>(p.fixed[i].p_finish[0]) - pr.p_finish) < 1e-12);
+        CHECK(std::fabs(static_cast<double>(p.fixed[i].rounds[0]) - pr.mean_turns_given_finish) <
+              1e-9 * pr.mean_turns_given_finish);
+        CHECK(p.best.rounds[0] <= p.fixed[i].rounds[0]);
+    }
+    CHECK(p.bound < 1e-13);
+    CHECK(p.relative_bound < 1e-12);
+}
+
+TEST_CASE("policy: refusals", "[policy]") {
+    // Exact mode needs a board where pieces never move backward.
     const Board bounce = make_board(10, Overshoot::bounce, {});
     auto menu = chains(bounce, {"1d6", "2d6"});
-    CHECK_THROWS_AS(solve_alone(menu, false), LimitError);
-    CHECK_THROWS_AS(solve_duel_policy(menu, menu, Order::a_first, false), LimitError);
+    CHECK_THROWS_AS(solve_alone(menu, true), LimitError);
+    CHECK_THROWS_AS(solve_duel_policy(menu, menu, Order::a_first, true), LimitError);
     const Board back = make_board(10, Overshoot::stay, {{8, 2}});
     auto m2 = chains(back, {"1d6"});
-    CHECK_THROWS_AS(solve_duel_policy(m2, m2, Order::simultaneous, false), LimitError);
+    CHECK_THROWS_AS(solve_duel_policy(m2, m2, Order::simultaneous, true), LimitError);
+    // A loop no choice has to leave ([2,4] from an odd distance under bounce
+    // never finishes): no bound on the iteration's error, refused.
+    auto loop = chains(bounce, {"[2,4]", "1d6"});
+    CHECK_THROWS_AS(solve_alone(loop, false), LimitError);
+    auto loop_b = chains(bounce, {"[2,4]"});
+    CHECK_THROWS_AS(solve_duel_policy(loop, loop_b, Order::simultaneous, false), LimitError);
+    CHECK_THROWS_AS(solve_duel_policy(loop, loop_b, Order::a_first, false), LimitError);
     // The simultaneous game of two menus has no exact mode.
     const Board plain = make_board(10, Overshoot::stay, {});
     auto m3 = chains(plain, {"1d6", "2d6"});
@@ -227,7 +323,8 @@ TEST_CASE("policy command: JSON keys, figure and one-line errors", "[policy][cli
     std::filesystem::remove(svg);
     for (const char* bad : {"--length 10", "--length 10 --menu 1d6 --against 1d6 --against-menu 1d6,2d6",
                             "--length 10 --menu '[1,2' --against 1d6", "--length 10 --menu 1d6,,2d6",
-                            "--length 10 --menu 1d6 --overshoot bounce", "--length 10 --menu 1d6 --order a-first",
+                            "--length 10 --menu 1d6 --overshoot bounce --exact", "--length 10 --menu [2,4],1d6 --overshoot bounce",
+                            "--length 10 --menu 1d6 --order a-first",
                             "--length 10 --menu 1d6,2d6 --against-menu 1d6,2d6 --exact"}) {
         auto e = policy_cli(bad);
         INFO(bad << "\n" << e.err);

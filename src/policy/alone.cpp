@@ -5,33 +5,90 @@
 
 #include "chain/series.hpp"
 #include "core/error.hpp"
+#include "policy/blocks.hpp"
+#include "policy/loops.hpp"
 #include "policy/moves.hpp"
 
 namespace overshoot {
 
-std::string policy_refusal(const Chain& c) {
+std::string exact_policy_refusal(const Chain& c) {
     if (c.forward_only) return {};
-    return "optimal policies are computed by backward induction over squares, which needs a board where pieces "
-           "never move backward; this board has the bounce rule or a backward jump";
+    return "exact mode: optimal policies are exact by backward induction over squares, which needs a board "
+           "where "
+           "pieces never move backward; this board has the bounce rule or a backward jump: omit --exact to "
+           "get "
+           "values within proven bounds";
 }
 
 namespace {
 
 template <class T>
 struct AloneT {
-    std::vector<T> h, e;      // P(finish), expected rounds
+    std::vector<T> h, e;       // P(finish), expected rounds
     std::vector<char> finite;  // e is finite
     std::vector<Choice> surest, fastest;
 };
 
-bool within(const long double& x, const long double& y, const long double& tol) { return std::fabs(x - y) <= tol; }
+bool within(const long double& x, const long double& y, const long double& tol) {
+    return std::fabs(x - y) <= tol;
+}
 bool within(const mpq_class& x, const mpq_class& y, const mpq_class&) { return x == y; }
 
-// Backward induction: every destination of a square other than itself lies
-// beyond it, so each square's value needs only later squares and its own
-// self-loop, solved in closed form (x = r + s x, x = r / (1 - s)).
+// Squares of a block with loops from which the options in `allowed` can
+// finish for sure: the largest set F of the block where every square has an
+// option that leaves it, moves only into F, to the finish or to later squares
+// that finish for sure, and from which such moves reach the finish
+// (graph search only; marks r.finite).
+template <class T, class R>
+void mark_sure(const std::vector<Moves<T>>& menu, const std::vector<int>& allowed,
+               const std::vector<int>& block, R& r) {
+    const int n = menu.front().length;
+    std::vector<char> in(static_cast<std::size_t>(n) + 1, 0), reach(static_cast<std::size_t>(n) + 1, 0);
+    for (int s : block) in[s] = 1;
+    const std::vector<char> block_of = in;
+    auto exit_ok = [&](int d) { return d == n || (!block_of[d] && r.finite[d]); };
+    for (bool changed = true; changed;) {
+        auto usable = [&](const Moves<T>& m, int s) {
+            if (!(m.leave[s] > 0)) return false;
+            for (auto q = m.start[s]; q < m.start[s + 1]; ++q)
+                if (!exit_ok(m.dest[q]) && !in[m.dest[q]]) return false;
+            return true;
+        };
+        std::fill(reach.begin(), reach.end(), 0);
+        for (bool grew = true; grew;) {
+            grew = false;
+            for (int s : block) {
+                if (!in[s] || reach[s]) continue;
+                for (int i : allowed) {
+                    const Moves<T>& m = menu[i];
+                    if (!usable(m, s)) continue;
+                    bool hits = false;
+                    for (auto q = m.start[s]; q < m.start[s + 1] && !hits; ++q)
+                        hits = exit_ok(m.dest[q]) || reach[m.dest[q]];
+                    if (hits) {
+                        reach[s] = 1;
+                        grew = true;
+                        break;
+                    }
+                }
+            }
+        }
+        changed = false;
+        for (int s : block)
+            if (in[s] && !reach[s]) in[s] = 0, changed = true;
+    }
+    for (int s : block) r.finite[s] = in[s];
+}
+
+// Square by square, each block after the blocks it moves to (policy/blocks.hpp).
+// Where pieces never move backward every destination of a square other than
+// itself lies beyond it: each square's value needs only later squares and its
+// own self-loop, solved in closed form (x = r + s x, x = r / (1 - s)). A
+// block with loops is swept until nothing moves (Gauss-Seidel from 0, which
+// rises to the least fixed point); its proof is in solve_alone.
 template <class T>
-AloneT<T> solve(const std::vector<Moves<T>>& menu, const std::vector<int>& allowed, const T& tol) {
+AloneT<T> solve(const std::vector<Moves<T>>& menu, const std::vector<int>& allowed, const T& tol,
+                const SquareBlocks& blocks) {
     const int n = menu.front().length;
     AloneT<T> r;
     r.h.assign(n + 1, T(0));
@@ -44,7 +101,8 @@ AloneT<T> solve(const std::vector<Moves<T>>& menu, const std::vector<int>& allow
     const int k = static_cast<int>(allowed.size());
     std::vector<T> hi(k), ei(k);
     std::vector<char> fi(k);
-    for (int s = n - 1; s >= 0; --s) {
+    auto visit = [&](int s) -> long double {
+        const T old_h = r.h[s], old_e = r.e[s];
         for (int x = 0; x < k; ++x) {
             const Moves<T>& m = menu[allowed[x]];
             T sum_h(0), sum_e(0);
@@ -52,8 +110,10 @@ AloneT<T> solve(const std::vector<Moves<T>>& menu, const std::vector<int>& allow
             for (auto q = m.start[s]; q < m.start[s + 1]; ++q) {
                 const int d = m.dest[q];
                 sum_h += m.p[q] * r.h[d];
-                if (!r.finite[d]) fin = false;
-                else sum_e += m.p[q] * r.e[d];
+                if (!r.finite[d])
+                    fin = false;
+                else
+                    sum_e += m.p[q] * r.e[d];
             }
             // An option that never leaves the square never finishes from it.
             hi[x] = m.leave[s] > 0 ? T(sum_h / m.leave[s]) : T(0);
@@ -86,6 +146,27 @@ AloneT<T> solve(const std::vector<Moves<T>>& menu, const std::vector<int>& allow
                 }
         }
         r.fastest[s] = cf;
+        return std::max(policy_detail::gap(r.h[s], old_h),
+                        policy_detail::gap(r.e[s], old_e) / (1 + policy_detail::magnitude(r.e[s])));
+    };
+    for (int b = 0; b < blocks.count(); ++b) {
+        const std::vector<int> block(blocks.squares.begin() + blocks.start[b],
+                                     blocks.squares.begin() + blocks.start[b + 1]);
+        if (block.size() == 1) {
+            visit(block[0]);
+            continue;
+        }
+        mark_sure(menu, allowed, block, r);
+        long double best = INFINITY;
+        for (int sweep = 0, stale = 0; sweep < 1000000 && stale < 64; ++sweep) {
+            long double moved = 0;
+            for (int s : block) moved = std::max(moved, visit(s));
+            if (moved <= 8 * std::numeric_limits<long double>::epsilon()) break;
+            if (moved < best)
+                best = moved, stale = 0;
+            else
+                ++stale;
+        }
     }
     return r;
 }
@@ -94,8 +175,98 @@ AloneValues values_of(const AloneT<long double>& t, int n) {
     AloneValues v;
     v.p_finish.assign(t.h.begin(), t.h.begin() + n);
     v.rounds.resize(n);
-    for (int s = 0; s < n; ++s) v.rounds[s] = t.finite[s] ? t.e[s] : std::numeric_limits<long double>::infinity();
+    for (int s = 0; s < n; ++s)
+        v.rounds[s] = t.finite[s] ? t.e[s] : std::numeric_limits<long double>::infinity();
     return v;
+}
+
+// A proven bound w on the rounds a piece can still spend inside its block of
+// squares whatever it chooses, for the squares of blocks with loops (options
+// that never leave a square count as ending there: they finish nothing).
+// Throws LimitError when no finite bound is found (policy/loops.hpp).
+std::vector<long double> rounds_alone(const std::vector<Moves<long double>>& menu, const SquareBlocks& blocks,
+                                      long double rel) {
+    const int n = menu.front().length;
+    std::vector<long double> w(static_cast<std::size_t>(n) + 1, 0.0L);
+    auto phi = [&](int s, const std::vector<long double>& x, bool solve) {
+        long double most = 0;
+        for (const auto& m : menu) {
+            if (!(m.leave[s] > 0)) continue;
+            long double sum = 1;
+            for (auto q = m.start[s]; q < m.start[s + 1]; ++q) sum += m.p[q] * x[m.dest[q]];
+            most = std::max(most, solve ? sum / m.leave[s] : sum + m.stay[s] * x[s]);
+        }
+        return most;
+    };
+    std::vector<int> looping;
+    for (int b = 0; b < blocks.count(); ++b) {
+        if (blocks.single(b)) continue;
+        for (int i = blocks.start[b]; i < blocks.start[b + 1]; ++i) looping.push_back(blocks.squares[i]);
+        long double best = INFINITY;
+        for (int sweep = 0, stale = 0; sweep < 1000000 && stale < 64; ++sweep) {
+            long double moved = 0;
+            for (int i = blocks.start[b]; i < blocks.start[b + 1]; ++i) {
+                const int s = blocks.squares[i];
+                const long double x = phi(s, w, true);
+                moved = std::max(moved, std::fabs(x - w[s]) / std::max(1.0L, x));
+                w[s] = x;
+            }
+            if (!std::isfinite(moved) || w[blocks.squares[blocks.start[b]]] > 1e15L)
+                policy_detail::refuse_unbounded();
+            if (moved <= 8 * std::numeric_limits<long double>::epsilon()) break;
+            if (moved < best)
+                best = moved, stale = 0;
+            else
+                ++stale;
+        }
+    }
+    // Squares outside blocks with loops keep w = 0: only a block's own
+    // squares enter its bound, so w >= 1 + Q w is needed there only (with
+    // w >= 0 elsewhere, the inequality with every square implies it).
+    for (long double eta = 1e-9L; eta < 1; eta *= 64) {
+        std::vector<long double> v = w;
+        for (int s : looping) v[s] = w[s] * (1 + eta) + eta;
+        bool ok = true;
+        for (int s : looping) ok = ok && phi(s, v, false) * (1 + rel) <= v[s];
+        if (ok) return v;
+    }
+    policy_detail::refuse_unbounded();
+    return w;
+}
+
+// The proven errors (P(finish), expected rounds) of a solution on a board
+// with loops: the residual of one round at every square of a block with
+// loops, times the block's w, over a chain of at most `blocks` blocks.
+std::pair<long double, long double> alone_error(const std::vector<Moves<long double>>& menu,
+                                                const std::vector<int>& allowed, const AloneT<long double>& r,
+                                                const SquareBlocks& blocks, const std::vector<long double>& w,
+                                                long double rel) {
+    policy_detail::ErrorTally th(blocks.count(), 2 * rel), te(blocks.count(), 2 * rel);
+    for (int b = 0; b < blocks.count(); ++b) {
+        if (blocks.single(b)) continue;
+        for (int i = blocks.start[b]; i < blocks.start[b + 1]; ++i) {
+            const int s = blocks.squares[i];
+            long double ph = 0, pe = INFINITY;
+            for (int o : allowed) {
+                const auto& m = menu[o];
+                if (!(m.leave[s] > 0)) continue;  // never leaves: finishes nothing (0)
+                long double sh = 0, se = 1;
+                bool fin = true;
+                for (auto q = m.start[s]; q < m.start[s + 1]; ++q) {
+                    sh += m.p[q] * r.h[m.dest[q]];
+                    if (!r.finite[m.dest[q]])
+                        fin = false;
+                    else
+                        se += m.p[q] * r.e[m.dest[q]];
+                }
+                ph = std::max(ph, sh + m.stay[s] * r.h[s]);
+                if (fin) pe = std::min(pe, se + m.stay[s] * r.e[s]);
+            }
+            th.add(b, 0, std::fabs(ph - r.h[s]) + rel, w[s]);
+            if (r.finite[s]) te.add(b, 0, std::fabs(pe - r.e[s]) + rel * (1 + r.e[s]), w[s]);
+        }
+    }
+    return {th.total(), te.total()};
 }
 
 }  // namespace
@@ -103,7 +274,8 @@ AloneValues values_of(const AloneT<long double>& t, int n) {
 AlonePolicy solve_alone(const std::vector<Chain>& menu, bool exact) {
     if (menu.empty() || static_cast<int>(menu.size()) > max_menu_options)
         throw InputError("a menu holds 1 to " + std::to_string(max_menu_options) + " options");
-    if (auto why = policy_refusal(menu.front()); !why.empty()) throw LimitError(why);
+    if (exact)
+        if (auto why = exact_policy_refusal(menu.front()); !why.empty()) throw LimitError(why);
     const int n = menu.front().length;
     int widest = 0;
     for (const auto& c : menu) widest = std::max(widest, c.max_move);
@@ -119,15 +291,36 @@ AlonePolicy solve_alone(const std::vector<Chain>& menu, bool exact) {
     auto menu_f = make_menu<long double>(menu);
     std::vector<int> all(menu.size());
     for (std::size_t i = 0; i < menu.size(); ++i) all[i] = static_cast<int>(i);
-    AloneT<long double> best = solve(menu_f, all, tol);
+    const SquareBlocks blocks = square_blocks(menu);
+    const bool loops = blocks.count() < n;
+    std::vector<long double> w;
+    const long double rel = policy_detail::step_rounding(widest + 8);
+    if (loops) {
+        w = rounds_alone(menu_f, blocks, rel);
+        out.iterated = true;
+    }
+    // On a board with loops the bounds are the largest proven errors of the
+    // adaptive and every fixed programme; E >= 1, so an absolute error of the
+    // rounds is also a relative one.
+    auto prove = [&](const std::vector<int>& allowed, const AloneT<long double>& r) {
+        if (!loops) return;
+        const auto [eh, ee] = alone_error(menu_f, allowed, r, blocks, w, rel);
+        out.bound = std::max(out.bound, eh);
+        out.relative_bound = std::max(out.relative_bound, ee);
+    };
+    AloneT<long double> best = solve(menu_f, all, tol, blocks);
+    prove(all, best);
     out.fastest = best.fastest;
     out.surest = best.surest;
     out.best = values_of(best, n);
-    for (std::size_t i = 0; i < menu.size(); ++i)
-        out.fixed.push_back(values_of(solve(menu_f, {static_cast<int>(i)}, tol), n));
+    for (std::size_t i = 0; i < menu.size(); ++i) {
+        AloneT<long double> f = solve(menu_f, {static_cast<int>(i)}, tol, blocks);
+        prove({static_cast<int>(i)}, f);
+        out.fixed.push_back(values_of(f, n));
+    }
     if (exact) {
         auto menu_q = make_menu<mpq_class>(menu);
-        AloneT<mpq_class> q = solve(menu_q, all, mpq_class(0));
+        AloneT<mpq_class> q = solve(menu_q, all, mpq_class(0), blocks);
         // The exact programme decides ties exactly: its choices replace the rounded ones.
         out.fastest = q.fastest;
         out.surest = q.surest;
@@ -135,7 +328,7 @@ AlonePolicy solve_alone(const std::vector<Chain>& menu, bool exact) {
         out.exact_p_finish = q.h[0];
         if (q.finite[0]) out.exact_rounds = q.e[0];
         for (std::size_t i = 0; i < menu.size(); ++i) {
-            AloneT<mpq_class> f = solve(menu_q, {static_cast<int>(i)}, mpq_class(0));
+            AloneT<mpq_class> f = solve(menu_q, {static_cast<int>(i)}, mpq_class(0), blocks);
             out.exact_fixed_p_finish.push_back(f.h[0]);
             out.exact_fixed_rounds.push_back(f.finite[0] ? std::optional<mpq_class>(f.e[0]) : std::nullopt);
         }

@@ -2,9 +2,13 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
+#include <type_traits>
 
 #include "chain/series.hpp"
 #include "core/error.hpp"
+#include "policy/blocks.hpp"
+#include "policy/loops.hpp"
 #include "policy/matrix_game.hpp"
 #include "policy/moves.hpp"
 #include "policy/sweeps.hpp"
@@ -17,12 +21,19 @@ std::string_view to_string(PolicyGoal g) { return g == PolicyGoal::win ? "win" :
 
 namespace {
 
+using policy_detail::AlternatingProgramme;
 using policy_detail::AltValues;
 using policy_detail::Candidates;
+using policy_detail::ErrorTally;
 using policy_detail::Payoff;
 using policy_detail::Quad;
+using policy_detail::RoundsBound;
+using policy_detail::SimultaneousProgramme;
+using policy_detail::SweepPlan;
 
-bool near(const long double& x, const long double& y, const long double& tol) { return std::fabs(x - y) <= tol; }
+bool near(const long double& x, const long double& y, const long double& tol) {
+    return std::fabs(x - y) <= tol;
+}
 bool near(const mpq_class& x, const mpq_class& y, const mpq_class&) { return x == y; }
 
 template <class T>
@@ -39,6 +50,32 @@ Payoff<Quad<T>> outcome_payoff() {
     p.neither.neither = 1;
     return p;
 }
+
+// The order of the states and, on boards where pieces move backward, what
+// proves the error of the iterated blocks (policy/loops.hpp).
+struct Setting {
+    SquareBlocks ba, bb;
+    SweepPlan plan;
+    bool loops = false;
+    RoundsBound w;
+    long double rel = 0;        // relative rounding of one state's operator
+    long double one_state = 0;  // error a one-state block adds
+    int blocks = 0;             // most blocks one chain of dependencies passes
+    Setting(const std::vector<Chain>& a, const std::vector<Chain>& b)
+        : ba(square_blocks(a)), bb(square_blocks(b)) {
+        plan.a = &ba;
+        plan.b = &bb;
+        loops = ba.count() < static_cast<int>(ba.squares.size()) ||
+                bb.count() < static_cast<int>(bb.squares.size());
+        plan.settle = 8 * std::numeric_limits<long double>::epsilon();
+        plan.max_sweeps = 20000;
+        blocks = ba.count() + bb.count();
+    }
+    Setting(const Setting&) = delete;
+    // w at a state: before A's move (or the round) and before B's move.
+    long double wa(std::size_t idx) const { return w.wa[idx]; }
+    long double wb(std::size_t idx) const { return w.wb.empty() ? w.wa[idx] : w.wb[idx]; }
+};
 
 // Earliest candidate whose value is within tol of the best, and all such.
 template <class T>
@@ -58,7 +95,47 @@ struct Found {
     std::vector<Choice> ca, cb;
     T value{0};
     std::vector<T> va, vb;
+    long double error = 0;  // proven, on boards with loops (else 0: bounded by the caller)
 };
+
+// The proven error of values found by a programme on a board with loops: one
+// step of the plain operator (`one`, `one_a`/`one_b`) at every state of a block
+// of several, its residual with rounding, times the block's w (policy/loops.hpp).
+template <class T, class V, class One>
+long double simultaneous_error(SimultaneousProgramme<T, V>& p, const Setting& st, One&& one) {
+    if constexpr (!std::is_floating_point_v<T>) {
+        throw InternalError("policies: boards with loops are solved in floating point only");
+    } else {
+        ErrorTally tally(st.blocks, st.one_state);
+        const std::size_t n = static_cast<std::size_t>(st.ba.squares.size());
+        p.step(st.plan, p.v, one, [&](int a, int b, int ka, int kb, const V& phi) {
+            const std::size_t idx = static_cast<std::size_t>(a) * n + b;
+            const V& x = p.v[idx];
+            tally.add(ka, kb, policy_detail::gap(phi, x) + st.rel * (1 + policy_detail::magnitude(x)),
+                      st.wa(idx));
+        });
+        return tally.total();
+    }
+}
+
+template <class T, class V, class OneA, class OneB>
+long double alternating_error(AlternatingProgramme<T, V>& p, const Setting& st, OneA&& one_a, OneB&& one_b) {
+    if constexpr (!std::is_floating_point_v<T>) {
+        throw InternalError("policies: boards with loops are solved in floating point only");
+    } else {
+        ErrorTally tally(st.blocks, st.one_state);
+        const std::size_t n = static_cast<std::size_t>(st.ba.squares.size());
+        p.step(st.plan, p.r, one_a, one_b, [&](int a, int b, int ka, int kb, const V& pa, const V& pb) {
+            const std::size_t idx = static_cast<std::size_t>(a) * n + b;
+            const V &xa = p.r.va[idx], &xb = p.r.vb[idx];
+            tally.add(ka, kb, policy_detail::gap(pa, xa) + st.rel * (1 + policy_detail::magnitude(xa)),
+                      st.wa(idx));
+            tally.add(ka, kb, policy_detail::gap(pb, xb) + st.rel * (1 + policy_detail::magnitude(xb)),
+                      st.wb(idx));
+        });
+        return tally.total();
+    }
+}
 
 template <class T>
 T start_value(const AltValues<T>& r, Order order) {
@@ -80,8 +157,9 @@ Quad<T> start_outcomes(const AltValues<Quad<T>>& r, Order order) {
 // payoff of neither (0) for a pair that stays forever (docs/policy.md proves
 // that this is the least-fixed-point value with the loop paying 0).
 template <class T>
-Found<T> optimise_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a_all, const std::vector<Moves<T>>& B,
-                       const std::vector<int>& b_all, Order order, PolicyGoal goal, const T& tol) {
+Found<T> optimise_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a_all,
+                       const std::vector<Moves<T>>& B, const std::vector<int>& b_all, Order order,
+                       PolicyGoal goal, const T& tol, Setting& st) {
     const int n = A.front().length;
     const std::size_t cells = static_cast<std::size_t>(n) * n;
     Found<T> f;
@@ -106,7 +184,8 @@ Found<T> optimise_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a
             throw InternalError("optimise_pure: the simultaneous game of two menus needs mixed choices");
         std::vector<T> e(max_menu_options * max_menu_options);
         std::vector<T> col(max_menu_options);
-        auto decide = [&](std::size_t idx, int na, const int* ai, int nb, const int* bj, const T* c, const T* den) -> T {
+        auto decide = [&](std::size_t idx, int na, const int* ai, int nb, const int* bj, const T* c,
+                          const T* den) -> T {
             for (int k = 0; k < na * nb; ++k) e[k] = den[k] > 0 ? T(c[k] / den[k]) : pay.neither;
             const T v = decide_a(idx, na, ai, nb, bj, e.data());
             if (nb > 1) {
@@ -115,10 +194,30 @@ Found<T> optimise_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a
             }
             return v;
         };
-        auto v = policy_detail::simultaneous_sweep<T, T>(A, Candidates{&a_all}, B, b_all, Candidates{&b_all}, pay,
-                                                         decide);
-        f.value = v[0];
-        f.va = std::move(v);
+        SimultaneousProgramme<T, T> p(A, Candidates{&a_all}, B, b_all, Candidates{&b_all}, pay);
+        p.sweep(st.plan, decide);
+        if (st.loops) {
+            // One round: a pair that stays forever pays neither, any other
+            // pays c + (1 - den) x; A's best row minimum.
+            f.error = simultaneous_error(p, st,
+                                         [&](std::size_t, int na, const int*, int nb, const int*, const T* c,
+                                             const T* den, const T& x) {
+                                             T best{};
+                                             for (int i = 0; i < na; ++i) {
+                                                 T low{};
+                                                 for (int j = 0; j < nb; ++j) {
+                                                     const int k = i * nb + j;
+                                                     const T m = den[k] > 0 ? T(c[k] + (1 - den[k]) * x)
+                                                                            : pay.neither;
+                                                     if (j == 0 || m < low) low = m;
+                                                 }
+                                                 if (i == 0 || low > best) best = low;
+                                             }
+                                             return best;
+                                         });
+        }
+        f.value = p.v[0];
+        f.va = std::move(p.v);
         return f;
     }
     auto decide_b = [&](std::size_t idx, int nb, const int* bj, const T* y) -> T {
@@ -139,19 +238,32 @@ Found<T> optimise_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a
         }
         return best;
     };
-    auto r = policy_detail::alternating_sweep<T, T>(A, Candidates{&a_all}, B, Candidates{&b_all}, pay, decide_a,
-                                                    decide_b);
-    f.value = start_value(r, order);
-    f.va = std::move(r.va);
-    f.vb = std::move(r.vb);
+    AlternatingProgramme<T, T> p(A, Candidates{&a_all}, B, Candidates{&b_all}, pay);
+    p.sweep(st.plan, decide_a, decide_b);
+    if (st.loops) {
+        // One move: A takes its best, B its least.
+        auto one = [](bool most) {
+            return [most](std::size_t, int m, const int*, const T* z) {
+                T best = z[0];
+                for (int q = 1; q < m; ++q)
+                    if (most ? z[q] > best : z[q] < best) best = z[q];
+                return best;
+            };
+        };
+        f.error = alternating_error(p, st, one(true), one(false));
+    }
+    f.value = start_value(p.r, order);
+    f.va = std::move(p.r.va);
+    f.vb = std::move(p.r.vb);
     return f;
 }
 
 // The four outcome probabilities from the start under fixed pure choices.
 template <class T>
-Quad<T> evaluate_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a_all, const std::vector<Choice>& ca,
-                      const std::vector<Moves<T>>& B, const std::vector<int>& b_all, const std::vector<Choice>& cb,
-                      Order order) {
+Quad<T> evaluate_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a_all,
+                      const std::vector<Choice>& ca, const std::vector<Moves<T>>& B,
+                      const std::vector<int>& b_all, const std::vector<Choice>& cb, Order order, Setting& st,
+                      long double* error = nullptr) {
     const Payoff<Quad<T>> pay = outcome_payoff<T>();
     Candidates xa{&a_all, &ca};
     Candidates xb{&b_all, cb.empty() ? nullptr : &cb};
@@ -159,13 +271,24 @@ Quad<T> evaluate_pure(const std::vector<Moves<T>>& A, const std::vector<int>& a_
         auto decide = [&](std::size_t, int, const int*, int, const int*, const Quad<T>* c, const T* den) {
             return den[0] > 0 ? c[0] / den[0] : pay.neither;
         };
-        auto v = policy_detail::simultaneous_sweep<T, Quad<T>>(A, xa, B, b_all, xb, pay, decide);
-        return v[0];
+        SimultaneousProgramme<T, Quad<T>> p(A, xa, B, b_all, xb, pay);
+        p.sweep(st.plan, decide);
+        if (st.loops && error)
+            *error = simultaneous_error(
+                p, st,
+                [&](std::size_t, int, const int*, int, const int*, const Quad<T>* c, const T* den,
+                    const Quad<T>& x) { return den[0] > 0 ? c[0] + (1 - den[0]) * x : pay.neither; });
+        return p.v[0];
     }
     auto da = [&](std::size_t, int, const int*, int, const int*, const Quad<T>* e) { return e[0]; };
     auto db = [&](std::size_t, int, const int*, const Quad<T>* y) { return y[0]; };
-    auto r = policy_detail::alternating_sweep<T, Quad<T>>(A, xa, B, xb, pay, da, db);
-    return start_outcomes(r, order);
+    AlternatingProgramme<T, Quad<T>> p(A, xa, B, xb, pay);
+    p.sweep(st.plan, da, db);
+    if (st.loops && error) {
+        auto first = [](std::size_t, int, const int*, const Quad<T>* z) { return z[0]; };
+        *error = alternating_error(p, st, first, first);
+    }
+    return start_outcomes(p.r, order);
 }
 
 std::vector<int> all_of(std::size_t n) {
@@ -178,15 +301,19 @@ std::vector<int> all_of(std::size_t n) {
 // and payoffs (the weights sum to one after the division), so one state adds at
 // most gamma(k) for k the longest sum, and a value depends on at most 4n + 4
 // states in sequence (docs/policy.md).
-long double sweep_bound(const std::vector<Chain>& a, const std::vector<Chain>& b) {
+// The longest sum of one state: a row of moves, the candidates' terms and
+// the weights of a mixed choice.
+int sweep_terms(const std::vector<Chain>& a, const std::vector<Chain>& b) {
     int widest = 0;
     for (const auto& c : a) widest = std::max(widest, c.max_move);
     for (const auto& c : b) widest = std::max(widest, c.max_move);
-    const int n = a.front().length;
     const int na = static_cast<int>(a.size()), nb = static_cast<int>(b.size());
-    // The longest sum of one state: a row of moves, the candidates' terms and
-    // the weights of a mixed choice.
-    return static_cast<long double>(4 * n + 4) * gamma_ld(widest + 2 * (na + nb) + na * nb + 16);
+    return widest + 2 * (na + nb) + na * nb + 16;
+}
+
+long double sweep_bound(const std::vector<Chain>& a, const std::vector<Chain>& b) {
+    const int n = a.front().length;
+    return static_cast<long double>(4 * n + 4) * gamma_ld(sweep_terms(a, b));
 }
 
 // The simultaneous game of two menus (Shapley, 1953, PNAS 39:1095-1100): at
@@ -203,8 +330,8 @@ struct GameRun {
     std::vector<long double> values;
 };
 
-GameRun solve_simultaneous_game(const std::vector<Moves<long double>>& A, const std::vector<Moves<long double>>& B,
-                                long double tol) {
+GameRun solve_simultaneous_game(const std::vector<Moves<long double>>& A,
+                                const std::vector<Moves<long double>>& B, long double tol, Setting& st) {
     const int n = A.front().length;
     const std::size_t cells = static_cast<std::size_t>(n) * n;
     const int na = static_cast<int>(A.size()), nb = static_cast<int>(B.size());
@@ -223,6 +350,12 @@ GameRun solve_simultaneous_game(const std::vector<Moves<long double>>& A, const 
     };
     auto decide = [&](std::size_t idx, int, const int*, int, const int*, const long double* c,
                       const long double* den) -> long double {
+        // A block with loops visits a state again: forget its last choice.
+        std::fill(g.x.begin() + static_cast<std::ptrdiff_t>(idx * na),
+                  g.x.begin() + static_cast<std::ptrdiff_t>((idx + 1) * na), 0.0);
+        std::fill(g.y.begin() + static_cast<std::ptrdiff_t>(idx * nb),
+                  g.y.begin() + static_cast<std::ptrdiff_t>((idx + 1) * nb), 0.0);
+        if (g.mixed[idx]) g.mixed[idx] = 0, --g.mixed_states;
         for (int i = 0; i < na; ++i)
             for (int j = 0; j < nb; ++j) {
                 const long double e = den[i * nb + j] > 0 ? c[i * nb + j] / den[i * nb + j] : pay.neither;
@@ -251,8 +384,10 @@ GameRun solve_simultaneous_game(const std::vector<Moves<long double>>& A, const 
             for (int it = 0; it < 70 && std::fabs(hi - lo) > 1e-19L; ++it) {
                 const long double mid = (lo + hi) / 2;
                 const long double p = phi(mid);
-                if (above ? p > 0 : p < 0) lo = mid;
-                else hi = mid;
+                if (above ? p > 0 : p < 0)
+                    lo = mid;
+                else
+                    hi = mid;
             }
             v = (lo + hi) / 2;
         }
@@ -274,18 +409,21 @@ GameRun solve_simultaneous_game(const std::vector<Moves<long double>>& A, const 
         g.cb[idx] = b;
         return v;
     };
-    auto v = policy_detail::simultaneous_sweep<long double, long double>(A, Candidates{&a_all}, B, b_all,
-                                                                         Candidates{&b_all}, pay, decide);
-    g.value = v[0];
-    g.values = std::move(v);
+    SimultaneousProgramme<long double, long double> p(A, Candidates{&a_all}, B, b_all, Candidates{&b_all},
+                                                      pay);
+    p.sweep(st.plan, decide);
+    g.value = p.v[0];
+    g.values = std::move(p.v);
     return g;
 }
 
 // What a stored mixed strategy guarantees: one side plays its mix at every
 // state, the other answers best (a decision process, solved like the pure
 // ones). `rows` is true when A's mix is fixed.
-long double guaranteed_by_mix(const std::vector<Moves<long double>>& A, const std::vector<Moves<long double>>& B,
-                              const GameRun& g, bool rows) {
+// With the error proven on boards with loops in `*error`.
+long double guaranteed_by_mix(const std::vector<Moves<long double>>& A,
+                              const std::vector<Moves<long double>>& B, const GameRun& g, bool rows,
+                              Setting& st, long double* error) {
     const int na = static_cast<int>(A.size()), nb = static_cast<int>(B.size());
     const auto a_all = all_of(A.size()), b_all = all_of(B.size());
     const Payoff<long double> pay = goal_payoff<long double>(PolicyGoal::margin);
@@ -306,13 +444,40 @@ long double guaranteed_by_mix(const std::vector<Moves<long double>>& A, const st
         }
         return best;
     };
-    auto v = policy_detail::simultaneous_sweep<long double, long double>(A, Candidates{&a_all}, B, b_all,
-                                                                         Candidates{&b_all}, pay, decide);
-    return v[0];
+    SimultaneousProgramme<long double, long double> p(A, Candidates{&a_all}, B, b_all, Candidates{&b_all},
+                                                      pay);
+    p.sweep(st.plan, decide);
+    if (st.loops) {
+        // One round of the mix against each answer: the weighted matrix
+        // entries (a cell that stays forever returns to the state), unless
+        // every weighted cell stays forever (then the pair pays neither).
+        *error = simultaneous_error(p, st,
+                                    [&](std::size_t idx, int, const int*, int, const int*,
+                                        const long double* c, const long double* den, long double x) {
+                                        long double best = 0;
+                                        const int outer = rows ? nb : na, inner = rows ? na : nb;
+                                        for (int o = 0; o < outer; ++o) {
+                                            long double num = 0, d = 0, total = 0;
+                                            for (int k = 0; k < inner; ++k) {
+                                                const int cell = rows ? k * nb + o : o * nb + k;
+                                                const long double w =
+                                                    rows ? g.x[idx * na + k] : g.y[idx * nb + k];
+                                                num += w * (c[cell] + (1 - den[cell]) * x);
+                                                d += w * den[cell];
+                                                total += w;
+                                            }
+                                            const long double e = d > 0 ? num / total : pay.neither;
+                                            if (o == 0 || (rows ? e < best : e > best)) best = e;
+                                        }
+                                        return best;
+                                    });
+    }
+    return p.v[0];
 }
 
-Quad<long double> evaluate_mixes(const std::vector<Moves<long double>>& A, const std::vector<Moves<long double>>& B,
-                                 const GameRun& g) {
+Quad<long double> evaluate_mixes(const std::vector<Moves<long double>>& A,
+                                 const std::vector<Moves<long double>>& B, const GameRun& g, Setting& st,
+                                 long double* error) {
     const int na = static_cast<int>(A.size()), nb = static_cast<int>(B.size());
     const auto a_all = all_of(A.size()), b_all = all_of(B.size());
     const Payoff<Quad<long double>> pay = outcome_payoff<long double>();
@@ -329,9 +494,28 @@ Quad<long double> evaluate_mixes(const std::vector<Moves<long double>>& A, const
             }
         return d > 0 ? num / d : pay.neither;
     };
-    auto v = policy_detail::simultaneous_sweep<long double, Quad<long double>>(A, Candidates{&a_all}, B, b_all,
-                                                                               Candidates{&b_all}, pay, decide);
-    return v[0];
+    SimultaneousProgramme<long double, Quad<long double>> p(A, Candidates{&a_all}, B, b_all,
+                                                            Candidates{&b_all}, pay);
+    p.sweep(st.plan, decide);
+    if (st.loops) {
+        *error = simultaneous_error(
+            p, st,
+            [&](std::size_t idx, int, const int*, int, const int*, const Quad<long double>* c,
+                const long double* den, const Quad<long double>& x) {
+                Quad<long double> num{};
+                long double d = 0, total = 0;
+                for (int i = 0; i < na; ++i)
+                    for (int j = 0; j < nb; ++j) {
+                        const long double w = static_cast<long double>(g.x[idx * na + i]) * g.y[idx * nb + j];
+                        if (w == 0) continue;
+                        num += w * (c[i * nb + j] + (1 - den[i * nb + j]) * x);
+                        d += w * den[i * nb + j];
+                        total += w;
+                    }
+                return d > 0 ? num / total : pay.neither;
+            });
+    }
+    return p.v[0];
 }
 
 PolicyOutcomes outcomes_of(const Quad<long double>& q, long double bound) {
@@ -346,7 +530,8 @@ DuelPolicy solve_duel_policy(const std::vector<Chain>& a_menu, const std::vector
     if (a_menu.empty() || b_menu.empty() || static_cast<int>(a_menu.size()) > max_menu ||
         static_cast<int>(b_menu.size()) > max_menu)
         throw InputError("a menu holds 1 to " + std::to_string(max_menu) + " options");
-    if (auto why = policy_refusal(a_menu.front()); !why.empty()) throw LimitError(why);
+    if (exact)
+        if (auto why = exact_policy_refusal(a_menu.front()); !why.empty()) throw LimitError(why);
     DuelPolicy d;
     d.length = a_menu.front().length;
     d.order = order;
@@ -363,8 +548,19 @@ DuelPolicy solve_duel_policy(const std::vector<Chain>& a_menu, const std::vector
     const auto A = make_menu<long double>(a_menu);
     const auto B = make_menu<long double>(b_menu);
     const auto a_all = all_of(a_menu.size()), b_all = all_of(b_menu.size());
+    Setting st(a_menu, b_menu);
+    if (st.loops) {
+        st.rel = policy_detail::step_rounding(sweep_terms(a_menu, b_menu));
+        st.one_state = 2 * st.rel;
+        st.w = policy_detail::rounds_bound(A, a_all, B, b_all, order != Order::simultaneous, st.plan,
+                                           sweep_terms(a_menu, b_menu));
+        d.iterated = true;
+    }
+    // On boards with loops every bound below is the proven error of the
+    // iterated programme; elsewhere the rounding bound of the sweep.
+    auto proven = [&](long double error) { return st.loops ? error : bound; };
     if (game_sim) {
-        GameRun g = solve_simultaneous_game(A, B, tol);
+        GameRun g = solve_simultaneous_game(A, B, tol, st);
         d.a_choice = std::move(g.ca);
         d.b_choice = std::move(g.cb);
         d.a_mix = g.x;
@@ -374,23 +570,28 @@ DuelPolicy solve_duel_policy(const std::vector<Chain>& a_menu, const std::vector
         d.value = g.value;
         d.values = std::move(g.values);
         // The interval: what A's stored mix guarantees against every answer,
-        // and what B's stored mix concedes at most, each with its rounding.
-        d.value_low = guaranteed_by_mix(A, B, g, true) - bound;
-        d.value_high = guaranteed_by_mix(A, B, g, false) + bound;
-        d.outcomes = outcomes_of(evaluate_mixes(A, B, g), bound);
+        // and what B's stored mix concedes at most, each with its error.
+        long double e_low = 0, e_high = 0, e_out = 0;
+        d.value_low = guaranteed_by_mix(A, B, g, true, st, &e_low);
+        d.value_low -= proven(e_low);
+        d.value_high = guaranteed_by_mix(A, B, g, false, st, &e_high);
+        d.value_high += proven(e_high);
+        const Quad<long double> q = evaluate_mixes(A, B, g, st, &e_out);
+        d.outcomes = outcomes_of(q, proven(e_out));
+        d.sweeps = st.plan.sweeps;
         return d;
     }
-    Found<long double> f = optimise_pure(A, a_all, B, b_all, order, d.goal, tol);
+    Found<long double> f = optimise_pure(A, a_all, B, b_all, order, d.goal, tol, st);
     if (exact) {
         const auto Aq = make_menu<mpq_class>(a_menu);
         const auto Bq = make_menu<mpq_class>(b_menu);
-        Found<mpq_class> q = optimise_pure(Aq, a_all, Bq, b_all, order, d.goal, mpq_class(0));
+        Found<mpq_class> q = optimise_pure(Aq, a_all, Bq, b_all, order, d.goal, mpq_class(0), st);
         // Exact ties decide the choices; the rounded programme's values stay.
         f.ca = q.ca;
         f.cb = q.cb;
         d.exact = true;
         d.exact_value = q.value;
-        Quad<mpq_class> o = evaluate_pure(Aq, a_all, q.ca, Bq, b_all, q.cb, order);
+        Quad<mpq_class> o = evaluate_pure(Aq, a_all, q.ca, Bq, b_all, q.cb, order, st);
         d.exact_outcomes = {o.win, o.loss, o.tie, o.neither};
     }
     d.a_choice = f.ca;
@@ -398,18 +599,30 @@ DuelPolicy solve_duel_policy(const std::vector<Chain>& a_menu, const std::vector
     d.value = f.value;
     d.values = std::move(f.va);
     d.values_b = std::move(f.vb);
-    d.outcomes = outcomes_of(evaluate_pure(A, a_all, f.ca, B, b_all, f.cb, order), bound);
+    long double e_out = 0;
+    const Quad<long double> q = evaluate_pure(A, a_all, f.ca, B, b_all, f.cb, order, st, &e_out);
+    d.outcomes = outcomes_of(q, proven(e_out));
+    d.sweeps = st.plan.sweeps;
+    const long double own =
+        d.goal == PolicyGoal::win ? d.outcomes.p_a_wins : d.outcomes.p_a_wins - d.outcomes.p_b_wins;
+    if (st.loops) {
+        // The optimum lies within the proven error of the iterated values;
+        // against a fixed option the found policy's own value (within its
+        // error) is also a lower bound: no policy of A does better than the optimum.
+        d.value_low = d.value - f.error;
+        d.value_high = d.value + f.error;
+        if (d.goal == PolicyGoal::win) d.value_low = std::max(d.value_low, own - 2 * e_out);
+        return d;
+    }
     // The found policy's own value bounds the optimum from one side; the
     // optimising programme's value (within its rounding) from the other.
-    const long double own = d.goal == PolicyGoal::win ? d.outcomes.p_a_wins
-                                                       : d.outcomes.p_a_wins - d.outcomes.p_b_wins;
     d.value_low = std::min(own, d.value) - 2 * bound;
     d.value_high = std::max(own, d.value) + 2 * bound;
     return d;
 }
 
-PolicyComparison compare_policies(const std::vector<Chain>& a_menu, const std::vector<Chain>& b_menu, Order order,
-                                  bool exact) {
+PolicyComparison compare_policies(const std::vector<Chain>& a_menu, const std::vector<Chain>& b_menu,
+                                  Order order, bool exact) {
     PolicyComparison c;
     c.adaptive = solve_duel_policy(a_menu, b_menu, order, exact);
     for (std::size_t i = 0; i < a_menu.size(); ++i) {

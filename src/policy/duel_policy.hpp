@@ -2,9 +2,10 @@
 // Choosing the option every turn in a duel: piece A picks from its menu at
 // every state (both pieces' squares and whose move it is), against either a
 // fixed option (a Markov decision process maximising P(A wins)) or a second
-// menu (a zero-sum stochastic game with payoff P(A wins) - P(B wins)). Boards
-// where pieces never move backward only; docs/policy.md has the programmes
-// and their proofs.
+// menu (a zero-sum stochastic game with payoff P(A wins) - P(B wins)). Solved
+// backward over the squares where pieces never move backward, by iteration
+// with a proven bound where they can (the rule bounce, backward jumps);
+// docs/policy.md has the programmes and their proofs.
 #include <gmpxx.h>
 
 #include <optional>
@@ -55,11 +56,17 @@ struct DuelPolicy {
     bool exact = false;
     mpq_class exact_value;
     ExactPolicyOutcomes exact_outcomes;
+    // On boards where pieces move backward: blocks of states with loops were
+    // solved by iteration (sweeps: all their sweeps added up), and the bounds
+    // are proven from the residual of the values found (docs/policy.md).
+    bool iterated = false;
+    long long sweeps = 0;
 };
 
 // `exact` computes values and choices with fractions (refused for the
 // simultaneous game of two menus, whose value is irrational in general).
-// Throws LimitError for boards where pieces move backward.
+// Boards where pieces move backward are iterated with a proven bound; exact
+// mode refuses them, and both throw LimitError when the bound cannot be proven.
 DuelPolicy solve_duel_policy(const std::vector<Chain>& a_menu, const std::vector<Chain>& b_menu, Order order,
                              bool exact);
 
@@ -78,13 +85,13 @@ struct PolicyComparison {
     // One per A option. Against a fixed option these are the ordinary duels
     // (race/duel.hpp, race/exact.hpp); against a menu, B's best answers.
     std::vector<FixedPolicy> fixed;
-    int best_fixed = 0;             // largest value; the earlier option among equals
-    long double worth = 0;          // adaptive value - best fixed value (goal units)
+    int best_fixed = 0;     // largest value; the earlier option among equals
+    long double worth = 0;  // adaptive value - best fixed value (goal units)
     std::optional<mpq_class> exact_worth;
 };
 
-PolicyComparison compare_policies(const std::vector<Chain>& a_menu, const std::vector<Chain>& b_menu, Order order,
-                                  bool exact);
+PolicyComparison compare_policies(const std::vector<Chain>& a_menu, const std::vector<Chain>& b_menu,
+                                  Order order, bool exact);
 
 std::string_view to_string(PolicyGoal g);
 

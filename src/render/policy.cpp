@@ -138,6 +138,9 @@ std::string alone_policy_text(const AlonePolicyView& v) {
     out += fmt::format("error bound: P(finish) within {:.1e}, expected rounds within {:.1e} of themselves\n",
                        static_cast<double>(r.bound), static_cast<double>(r.relative_bound));
     out += "(expected rounds '-': finishing is not certain, the expectation is infinite)\n";
+    if (r.iterated)
+        out += "pieces can move backward on this board: squares in loops were solved by iteration, and the bounds "
+               "are proven from the residual of the values found\n";
     if (r.exact) {
         out += "\nexact: P(finish) = " + fraction_string(r.exact_p_finish);
         out += r.exact_rounds ? ", expected rounds = " + fraction_string(*r.exact_rounds) + "\n" : "\n";
@@ -172,6 +175,7 @@ nlohmann::json alone_policy_json(const AlonePolicyView& v) {
     j["expected_rounds"] = number_or_null(static_cast<double>(r.best.rounds[0]));
     j["error_bound"] = static_cast<double>(r.bound);
     j["relative_error_bound"] = static_cast<double>(r.relative_bound);
+    j["method"] = r.iterated ? "iteration" : "backward";
     nlohmann::json fixed = nlohmann::json::array();
     for (std::size_t i = 0; i < menu.size(); ++i)
         fixed.push_back({{"option", menu[i].name},
@@ -238,6 +242,11 @@ std::string duel_policy_text(const DuelPolicyView& v) {
                   "P(neither)", "margin"},
                  rows);
     out += fmt::format("error bound: each probability within {:.1e}\n", static_cast<double>(d.outcomes.bound));
+    if (d.iterated)
+        out += fmt::format("pieces can move backward on this board: states in loops were solved by iteration ({} "
+                           "sweeps); the optimal {} is proven within [{:.12f}, {:.12f}]\n",
+                           d.sweeps, game ? "margin" : "P(A wins)", static_cast<double>(d.value_low),
+                           static_cast<double>(d.value_high));
     if (game && v.order == Order::simultaneous)
         out += fmt::format("value of the game (margin): {:+.4e}, proven within [{:+.4e}, {:+.4e}]; {} of {} states "
                            "need a mixed choice\n",
@@ -292,6 +301,8 @@ nlohmann::json duel_policy_json(const DuelPolicyView& v) {
     j["p_neither"] = static_cast<double>(d.outcomes.p_neither);
     j["margin"] = static_cast<double>(d.outcomes.p_a_wins - d.outcomes.p_b_wins);
     j["error_bound"] = static_cast<double>(d.outcomes.bound);
+    j["method"] = d.iterated ? "iteration" : "backward";
+    if (d.iterated) j["sweeps"] = d.sweeps;
     j["value"] = {{"value", static_cast<double>(d.value)},
                   {"low", static_cast<double>(d.value_low)},
                   {"high", static_cast<double>(d.value_high)}};
