@@ -21,9 +21,13 @@ binary's doubles must then agree within 1e-12.
 Usage: check_duel_fractions.py BINARY SOURCE_DIR
 """
 import json
+import os
 import subprocess
 import sys
 from fractions import Fraction
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from linear_fractions import gauss_jordan  # noqa: E402
 
 TOLERANCE = 1e-12
 
@@ -182,23 +186,8 @@ def solve_elimination(ra, rb, n, a_first):
             if s in index:  # pairs where both are stuck are worth 0
                 row[index[s]] = row.get(index[s], 0) - p
         m.append({k: v for k, v in row.items() if v != 0})
-    for col in range(size):
-        pivot = next(r for r in range(col, size) if m[r].get(col, 0) != 0)
-        m[col], m[pivot] = m[pivot], m[col]
-        inv = Fraction(1) / m[col][col]
-        prow = {k: v * inv for k, v in m[col].items()}
-        m[col] = prow
-        for r in range(size):
-            f = m[r].get(col, 0) if r != col else 0
-            if f != 0:
-                row = m[r]
-                for k, v in prow.items():
-                    nv = row.get(k, 0) - f * v
-                    if nv != 0:
-                        row[k] = nv
-                    else:
-                        row.pop(k, None)
-    return [m[index[(0, 0)]].get(size + k, Fraction(0)) for k in range(3)]
+    x = gauss_jordan(m, size)
+    return [x[index[(0, 0)]].get(k, Fraction(0)) for k in range(3)]
 
 
 def exact_duel(n, rule, jumps, spec_a, spec_b, order, cross_check=True):

@@ -21,6 +21,12 @@ from DESIGN.md ("Semantics, exactly") and share no code with the C++ engine.
     this proves the optimum (a non-negative solution of v >= T v bounds the
     least fixed point from above; Puterman 1994, theorem 7.2.2, from memory).
   * alone: the same two checks for P(finish) and the expected rounds.
+  * boards where pieces move backward (bounce, backward jumps; the binary
+    iterates there and proves an interval): the exact optimum by policy
+    iteration over Fractions (Howard, 1960) must lie in the binary's proven
+    interval, its choices must be exactly optimal and its found policy's
+    exact outcomes within its error bound; the alternating game's choices are
+    evaluated exactly and pass the same Bellman checks.
 
 Usage: check_policy_fractions.py BINARY SOURCE_DIR
 """
@@ -32,6 +38,7 @@ from fractions import Fraction
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 from check_duel_fractions import add, fair, one_turn, to_prob  # noqa: E402
+from linear_fractions import gauss_jordan  # noqa: E402
 
 FAIL = []
 
@@ -52,6 +59,11 @@ OPTIONS = {
     "[1,1]": fair([1, 1]),
     "[4,1]": fair([4, 1]),
     "[4,0,5,2]": fair([4, 0, 5, 2]),
+    "[1,1,4]": fair([1, 1, 4]),
+    "[2,2,5]": fair([2, 2, 5]),
+    "[1,4]": fair([1, 4]),
+    "[4,1,2]": fair([4, 1, 2]),
+    "[1,5]": fair([1, 5]),
 }
 
 
@@ -172,27 +184,18 @@ def solve_exact(d, choice):
     m = len(live)
     rows = []
     for s in live:
-        row = [Fraction(0)] * (m + 1)
-        row[index[s]] += 1
+        row = {index[s]: Fraction(1), m: Fraction(0)}
         for p, t in succ[s]:
             if isinstance(t, tuple):
                 if t in index:
-                    row[index[t]] -= p
+                    row[index[t]] = row.get(index[t], 0) - p
             else:
                 row[m] += p * t
         rows.append(row)
-    for c in range(m):
-        piv = next(r for r in range(c, m) if rows[r][c] != 0)
-        rows[c], rows[piv] = rows[piv], rows[c]
-        f = rows[c][c]
-        rows[c] = [x / f for x in rows[c]]
-        for r in range(m):
-            if r != c and rows[r][c] != 0:
-                g = rows[r][c]
-                rows[r] = [x - g * y for x, y in zip(rows[r], rows[c])]
+    x = gauss_jordan(rows, m)
     v = {s: Fraction(0) for s in d.states}
     for s in live:
-        v[s] = rows[index[s]][m]
+        v[s] = x[index[s]].get(0, Fraction(0))
     return v
 
 
@@ -211,7 +214,10 @@ def start_value(d, v):
     return (v[("a", 0, 0)] + v[("b", 0, 0)]) / 2
 
 
-def duel_case(binary, n, rule, jumps, menu, against, order, exact):
+def duel_case(binary, n, rule, jumps, menu, against, order, exact, loops=False):
+    """`exact`: the binary's --exact fractions are checked; `loops` (a board
+    where pieces move backward, no --exact there): the binary's choices are
+    evaluated exactly here instead and must meet its proven interval."""
     goal = "win" if len(against) == 1 else "margin"
     args = ["--length", str(n), "--overshoot", rule, "--order", order, "--menu", ",".join(menu), "--state-values"]
     for f, t in jumps:
@@ -262,7 +268,9 @@ def duel_case(binary, n, rule, jumps, menu, against, order, exact):
         if len(near) == 1:
             check(cpp_choice(kind, a, b) == near[0], f"{name}: choice at {s}")
     check(abs(start_value(d, v) - j["value"]["value"]) < 1e-9, f"{name}: start value")
-    if not exact:
+    if loops:
+        check(j["method"] == "iteration", f"{name}: method {j['method']}")
+    if not exact and not loops:
         return
     # Fractions: evaluate the binary's choices exactly, then Bellman's equations.
     choice = {}
@@ -277,8 +285,15 @@ def duel_case(binary, n, rule, jumps, menu, against, order, exact):
         else:
             choice[s] = cpp_choice("b", a, b) if len(d.B) > 1 and a in resting and b in resting else 0
     ev = solve_exact(d, choice)
-    e = j["exact"]
-    check(start_value(d, ev) == frac(e["value"]), f"{name}: exact value {e['value']} vs {start_value(d, ev)}")
+    if exact:
+        e = j["exact"]
+        check(start_value(d, ev) == frac(e["value"]), f"{name}: exact value {e['value']} vs {start_value(d, ev)}")
+    else:
+        # Floats convert to Fractions exactly: the proven interval must hold
+        # the exact value of the binary's own policies (optimal by the
+        # Bellman checks below).
+        lo, hi = Fraction(j["value"]["low"]), Fraction(j["value"]["high"])
+        check(lo <= start_value(d, ev) <= hi, f"{name}: exact value {float(start_value(d, ev))} outside [{lo}, {hi}]")
     for s in d.states:
         kind, a, b = s
         if a not in resting or b not in resting:
@@ -339,6 +354,158 @@ def alone_case(binary, n, rule, menu):
             check(sum(p * hx[d] for d, p in r[s].items()) <= hx[s], f"{name}: an option beats the surest policy at {n - s}")
 
 
+# ---------------------------------------------------------------- boards with loops
+
+def policy_iteration(d):
+    """A alone chooses (B has one option): Howard's policy iteration (Howard,
+    1960, Dynamic Programming and Markov Processes, MIT Press) over Fractions.
+    From option 0 everywhere, each policy is evaluated exactly (solve_exact)
+    and a state switches option only where another does strictly better, until
+    none does. On the boards used here every policy ends the race for sure or
+    pays 0 in a loop that no option can leave better, the values rise at each
+    switch and the policies are finitely many, so it ends at a policy meeting
+    the optimality equations, whose solution is unique when every policy ends
+    the race (Puterman, 1994, Markov Decision Processes, section 7.2.5, from
+    memory): the exact optimum."""
+    choice = {s: ((0, 0) if s[0] == "r" else 0) for s in d.states}
+    while True:
+        v = solve_exact(d, choice)
+        changed = False
+        for s in d.states:
+            if not d.maximiser(s):
+                continue
+            q = [d.q(s, v, i, 0) if s[0] == "r" else d.q(s, v, i) for i in range(len(d.A))]
+            cur = choice[s][0] if s[0] == "r" else choice[s]
+            best = max(range(len(q)), key=lambda i: (q[i], -i))
+            if q[best] > q[cur]:
+                choice[s] = (best, 0) if s[0] == "r" else best
+                changed = True
+        if not changed:
+            return v
+
+
+def loop_against_case(binary, n, rule, jumps, menu, against, order):
+    """Against a fixed option on a board with loops: the exact optimum by
+    policy iteration must lie in the binary's proven interval, every state
+    value agree within 1e-12, every choice be exactly optimal, and the found
+    policy's outcomes (exactly evaluated) be within the error bound."""
+    args = ["--length", str(n), "--overshoot", rule, "--order", order, "--menu", ",".join(menu), "--state-values",
+            "--against", against]
+    for f, t in jumps:
+        args += ["--jump", f"{f}:{t}"]
+    j = run(binary, args)
+    if j is None:
+        return
+    name = f"loops {menu} vs {against} n={n} {rule} {jumps} {order}"
+    d = Duel(n, rule, jumps, menu, [against], order, "win")
+    best = policy_iteration(d)
+    lo, hi = Fraction(j["value"]["low"]), Fraction(j["value"]["high"])
+    check(lo <= start_value(d, best) <= hi, f"{name}: optimum {float(start_value(d, best))} outside [{lo}, {hi}]")
+    check(j["method"] == "iteration", f"{name}: method {j['method']}")
+    pol = j["policy"]
+    resting = set(range(n)) - {f for f, _ in jumps}
+    choice = {}
+    for s in d.states:
+        kind, a, b = s
+        on = a in resting and b in resting
+        key = "values" if kind in "ra" else "values_b"
+        if on:
+            got = pol[key][n - a - 1][n - b - 1]
+            check(abs(got - best[s]) < 1e-12, f"{name}: value at {s}: {got} vs {float(best[s])}")
+        if kind == "b":
+            choice[s] = 0
+            continue
+        i = pol["a"][n - a - 1][n - b - 1] if on else 0
+        choice[s] = (i, 0) if kind == "r" else i
+        if on:
+            q = [d.q(s, best, k, 0) if kind == "r" else d.q(s, best, k) for k in range(len(d.A))]
+            check(q[i] == max(q), f"{name}: choice {i} at {s} is not optimal ({[float(x) for x in q]})")
+    ev = solve_exact(d, choice)
+    check(abs(float(start_value(d, ev)) - j["p_a_wins"]) <= j["error_bound"] + 1e-16,
+          f"{name}: P(A wins) {j['p_a_wins']} vs exact {float(start_value(d, ev))} (bound {j['error_bound']})")
+
+
+def alone_loop_case(binary, n, rule, jumps, menu):
+    """Alone on a board with loops: the fewest expected rounds by policy
+    iteration over Fractions (Howard, 1960; a stochastic shortest path whose
+    option 0 finishes for sure, the start policy: Bertsekas and Tsitsiklis,
+    1991, Mathematics of Operations Research 16:580-595, from memory), against
+    the binary's expected rounds within its relative bound and its fastest
+    choices, exactly optimal; each fixed option evaluated exactly too."""
+    args = ["--length", str(n), "--overshoot", rule, "--menu", ",".join(menu)]
+    for f, t in jumps:
+        args += ["--jump", f"{f}:{t}"]
+    j = run(binary, args)
+    if j is None:
+        return
+    name = f"alone loops {menu} n={n} {rule} {jumps}"
+    rows = [moves(spec, n, rule, jumps) for spec in menu]
+
+    def rounds(policy):
+        """Expected rounds of a policy that finishes for sure, exactly."""
+        eq = []
+        for s in range(n):
+            r = rows[policy[s]][s]
+            row = {s: Fraction(1), n: Fraction(1)}
+            for dst, p in r.items():
+                if dst != n:
+                    row[dst] = row.get(dst, 0) - p
+            eq.append(row)
+        return [x.get(0, Fraction(0)) for x in gauss_jordan(eq, n)] + [Fraction(0)]
+
+    def q(e, i, s):
+        r = rows[i][s]
+        if r.get(s, 0) == 1:
+            return None  # never leaves: never finishes
+        return 1 + sum(p * e[dst] for dst, p in r.items())
+
+    policy = [0] * n
+    while True:
+        e = rounds(policy)
+        changed = False
+        for s in range(n):
+            cand = [(q(e, i, s), i) for i in range(len(menu)) if q(e, i, s) is not None]
+            value, i = min(cand, key=lambda c: (c[0], c[1]))
+            if value < q(e, policy[s], s):
+                policy[s] = i
+                changed = True
+        if not changed:
+            break
+    check(j["method"] == "iteration", f"{name}: method {j['method']}")
+    rel = j["relative_error_bound"]
+    by = {row["distance"]: row for row in j["policy"]}
+    for s in range(n):
+        if s in dict(jumps):
+            continue
+        row = by[n - s]
+        check(abs(row["p_finish"] - 1) <= j["error_bound"], f"{name}: P(finish) at {n - s}")
+        check(abs(row["expected_rounds"] - float(e[s])) <= (rel + 1e-15) * float(e[s]),
+              f"{name}: rounds at {n - s}: {row['expected_rounds']} vs {float(e[s])}")
+        qs = {menu[i]: q(e, i, s) for i in range(len(menu)) if q(e, i, s) is not None}
+        check(qs.get(row["fastest"]) == min(qs.values()), f"{name}: fastest {row['fastest']} at {n - s}: {qs}")
+    def finishes_surely(i):
+        """Every square reaches the finish under option i: a finite chain then
+        finishes with probability 1."""
+        reach = {n}
+        grew = True
+        while grew:
+            grew = False
+            for s in range(n):
+                if s not in reach and any(dst in reach for dst in rows[i][s]):
+                    reach.add(s)
+                    grew = True
+        return len(reach) == n + 1
+
+    for f in j["fixed"]:
+        i = menu.index(f["option"])
+        if not finishes_surely(i):
+            check(f["expected_rounds"] is None, f"{name}: always {f['option']} should have no finite mean")
+        else:
+            ex = rounds([i] * n)[0]
+            check(abs(f["expected_rounds"] - float(ex)) <= (rel + 1e-15) * float(ex),
+                  f"{name}: always {f['option']}: {f['expected_rounds']} vs {float(ex)}")
+
+
 def main():
     binary = sys.argv[1]
     # Tiny boards: exact, every order, the fixed opponent and the game.
@@ -355,7 +522,21 @@ def main():
     for rule in ["stay", "pass"]:
         alone_case(binary, 9, rule, ["1d3", "2d3", "[0,2]"])
         alone_case(binary, 14, rule, ["1d6", "2d6"])
-    finish(FAIL, "policies agree with value iteration (floats) and with exact evaluation (fractions)")
+    # Boards where pieces move backward (the rule bounce, backward jumps):
+    # exact optima by policy iteration, the binary's choices evaluated exactly.
+    for order in ["simultaneous", "a-first", "b-first", "coin"]:
+        loop_against_case(binary, 5, "bounce", [], ["1d2", "[0,2]", "1d3"], "1d2", order)
+        loop_against_case(binary, 6, "stay", [(4, 1)], ["1d2", "2d2"], "1d3", order)
+        loop_against_case(binary, 6, "bounce", [(2, 4), (5, 1)], ["1d3", "2d2"], "[1,1,3]", order)
+        duel_case(binary, 5, "bounce", [], ["1d3"], ["1d2", "[1,1,3]"], order, False, loops=True)
+        if order != "simultaneous":
+            duel_case(binary, 5, "bounce", [], ["1d2", "1d3"], ["1d2", "[1,1,3]"], order, False, loops=True)
+            duel_case(binary, 6, "stay", [(4, 1)], ["1d2", "2d2"], ["1d3", "2d2"], order, False, loops=True)
+    duel_case(binary, 8, "bounce", [], ["1d4", "2d2", "2d3"], ["1d3"], "simultaneous", False)
+    alone_loop_case(binary, 7, "bounce", [], ["1d3", "2d3", "[0,2]"])
+    alone_loop_case(binary, 9, "stay", [(7, 2)], ["1d3", "2d3"])
+    alone_loop_case(binary, 12, "bounce", [(5, 9), (10, 3)], ["1d6", "2d6"])
+    finish(FAIL, "policies agree with value iteration (floats), exact evaluation and policy iteration (fractions)")
 
 
 def finish(failures, success):

@@ -9,6 +9,9 @@ solved by SciPy (`scipy.optimize.linprog`, HiGHS).
     to v(s) >= r(s, i) + sum P(s' | s, i) v(s') for every option i, v >= 0.
     Its optimum is the least non-negative solution of v >= T v, the value;
     every state must agree with `--state-values` within 1e-8.
+  * The same on boards where pieces move backward (bounce, backward jumps),
+    where the binary iterates: the LP's start value must also lie in the
+    binary's proven interval.
   * The simultaneous game of two menus: at every state the matrix game
     M(i, j) = the expected value after one round with options i and j, using
     the binary's own state values (the state itself included, as in Shapley,
@@ -48,11 +51,20 @@ def policy_json(binary, args):
     return json.loads(out.stdout)
 
 
-def lp_case(binary, n, menu, against, order):
-    j = policy_json(binary, ["--length", str(n), "--order", order, "--menu", ",".join(menu), "--against", against])
+def board_args(rule, jumps):
+    args = ["--overshoot", rule]
+    for f, t in jumps:
+        args += ["--jump", f"{f}:{t}"]
+    return args
+
+
+def lp_case(binary, n, menu, against, order, rule="stay", jumps=()):
+    j = policy_json(binary, ["--length", str(n), "--order", order, "--menu", ",".join(menu), "--against", against,
+                             *board_args(rule, jumps)])
     if j is None:
         return
-    d = Duel(n, "stay", [], menu, [against], order, "win")
+    d = Duel(n, rule, list(jumps), menu, [against], order, "win")
+    resting = set(range(n)) - {f for f, _ in jumps}
     index = {s: k for k, s in enumerate(d.states)}
     m = len(d.states)
     a_ub, b_ub = [], []
@@ -76,9 +88,17 @@ def lp_case(binary, n, menu, against, order):
     pol = j["policy"]
     for s in d.states:
         kind, a, b = s
+        if a not in resting or b not in resting:
+            continue
         key = "values" if kind in "ra" else "values_b"
         got = pol[key][n - a - 1][n - b - 1]
-        check(abs(got - res.x[index[s]]) < 1e-8, f"LP {menu} vs {against} {order} at {s}: {got} vs {res.x[index[s]]}")
+        check(abs(got - res.x[index[s]]) < 1e-8,
+              f"LP {menu} vs {against} {order} {rule} {jumps} at {s}: {got} vs {res.x[index[s]]}")
+    # The LP's optimum from the start lies in the binary's proven interval
+    # (within the LP solver's own tolerance, 1e-9).
+    start = {"simultaneous": ("r", 0, 0), "a-first": ("a", 0, 0), "b-first": ("b", 0, 0)}[order]
+    x0 = res.x[index[start]]
+    check(j["value"]["low"] - 1e-9 <= x0 <= j["value"]["high"] + 1e-9, f"LP {menu} vs {against} {order}: start")
 
 
 def matrix_game(mat):
@@ -95,18 +115,22 @@ def matrix_game(mat):
     return res.x[-1]
 
 
-def game_case(binary, n, menu, against, want_mixed):
-    j = policy_json(binary, ["--length", str(n), "--menu", ",".join(menu), "--against-menu", ",".join(against)])
+def game_case(binary, n, menu, against, want_mixed, rule="stay", jumps=()):
+    j = policy_json(binary, ["--length", str(n), "--menu", ",".join(menu), "--against-menu", ",".join(against),
+                             *board_args(rule, jumps)])
     if j is None:
         return
-    name = f"game {menu} vs {against} n={n}"
-    d = Duel(n, "stay", [], menu, against, "simultaneous", "margin")
+    name = f"game {menu} vs {against} n={n} {rule} {jumps}"
+    d = Duel(n, rule, list(jumps), menu, against, "simultaneous", "margin")
+    resting = set(range(n)) - {f for f, _ in jumps}
     pol = j["policy"]
     v = {("r", a, b): pol["values"][n - a - 1][n - b - 1] for a in range(n) for b in range(n)}
     mixes = {(n - x["a_distance"], n - x["b_distance"]): x for x in pol["mixed"]}
     check(len(mixes) >= want_mixed, f"{name}: {len(mixes)} mixed states, expected at least {want_mixed}")
     for s in d.states:
         _, a, b = s
+        if a not in resting or b not in resting:
+            continue
         mat = np.array([[float(d.q(s, v, i, jj)) for jj in range(len(against))] for i in range(len(menu))])
         value = matrix_game(mat)
         check(abs(value - v[s]) < 1e-8, f"{name}: state {s}: linprog value {value} vs {v[s]}")
@@ -130,6 +154,16 @@ def main():
     # A board where a few states have no saddle point (found by a search over small dice).
     game_case(binary, 10, ["[2,3]", "[1,4,0,5]"], ["[1,1]", "[4,1]", "[4,0,5,2]"], 1)
     game_case(binary, 9, ["1d6", "2d6"], ["1d6", "2d6"], 0)
+    # Boards where pieces move backward (the binary iterates there).
+    for order in ["simultaneous", "a-first", "b-first"]:
+        lp_case(binary, 10, ["1d6", "2d6"], "1d3", order, "bounce")
+        lp_case(binary, 9, ["1d2", "[0,2]", "2d3"], "2d2", order, "stay", [(7, 2)])
+        lp_case(binary, 11, ["1d3", "2d3", "1d6"], "1d4", order, "bounce", [(3, 8), (9, 4)])
+    # A bounce board with a state that has no saddle point (found by a search
+    # over small dice).
+    game_case(binary, 8, ["[2,3]", "[1,1,4]"], ["2d2", "[2,2,5]"], 1, "bounce")
+    game_case(binary, 8, ["[1,4]", "[4,1,2]"], ["1d3", "[1,5]"], 1, "bounce")
+    game_case(binary, 9, ["1d6", "2d6", "1d3"], ["1d6", "2d6"], 0, "stay", [(7, 3)])
     finish(FAIL, "policies agree with SciPy's linear programmes")
 
 
