@@ -242,9 +242,13 @@ std::string duel_policy_text(const DuelPolicyView& v) {
                   "P(neither)", "margin"},
                  rows);
     out += fmt::format("error bound: each probability within {:.1e}\n", static_cast<double>(d.outcomes.bound));
-    if (d.iterated)
+    if (d.iterated && game && v.order == Order::simultaneous)
         out += fmt::format("pieces can move backward on this board: states in loops were solved by iteration ({} "
-                           "sweeps); the optimal {} is proven within [{:.12f}, {:.12f}]\n",
+                           "sweeps), their errors proven from the residual\n",
+                           d.sweeps);
+    else if (d.iterated)
+        out += fmt::format("pieces can move backward on this board: states in loops were solved by iteration ({} "
+                           "sweeps); the optimal {} is proven within [{:.15g}, {:.15g}]\n",
                            d.sweeps, game ? "margin" : "P(A wins)", static_cast<double>(d.value_low),
                            static_cast<double>(d.value_high));
     if (game && v.order == Order::simultaneous)
