@@ -12,24 +12,16 @@ length, and their strengths, must agree.
 
 Usage: check_hunt_board.py BINARY SOURCE_DIR
 """
-import json
-import subprocess
 import sys
 
+from script_support import Checks, run_json
+
 BINARY = sys.argv[1]
-failures = []
-
-
-def check(cond, what):
-    if not cond:
-        failures.append(what)
+check = Checks()
 
 
 def run(args):
-    p = subprocess.run([BINARY, *args], capture_output=True, text=True)
-    if p.returncode != 0:
-        raise SystemExit(f"FAIL: overshoot {' '.join(args)}: {p.stderr.strip()}")
-    return json.loads(p.stdout)
+    return run_json(BINARY, args)
 
 
 def anchored(jumps, anchor, hi, length):
@@ -86,7 +78,4 @@ total += case(12, 30, [(5, 11), (17, 3)], "start", "bounce", "simultaneous")
 total += case(12, 30, [(6, 10)], "finish", "pass", "simultaneous")
 check(total > 0, "no cycle at any length: the check compared nothing")
 
-if failures:
-    print("\n".join(failures))
-    sys.exit(1)
-print(f"ok: hunts on boards with jumps = tournament at every length ({total} cycle instances)")
+check.finish(f"ok: hunts on boards with jumps = tournament at every length ({total} cycle instances)")

@@ -12,29 +12,21 @@ on random race tournaments.
 
 Usage: check_tournament_networkx.py BINARY SOURCE_DIR
 """
-import json
 import os
 import random
-import subprocess
 import sys
+
+from script_support import Checks, run_json
 import tempfile
 
 import networkx as nx
 
 BINARY = sys.argv[1]
-failures = []
-
-
-def check(cond, what):
-    if not cond:
-        failures.append(what)
+check = Checks()
 
 
 def run(args):
-    p = subprocess.run([BINARY, "tournament", *args, "--json"], capture_output=True, text=True)
-    if p.returncode != 0:
-        raise SystemExit(f"FAIL: overshoot tournament {' '.join(args)}: {p.stderr.strip()}")
-    return json.loads(p.stdout)
+    return run_json(BINARY, ["tournament", *args, "--json"])
 
 
 def canonical(cycle):
@@ -164,8 +156,4 @@ def random_races(rng, rounds):
 rng = random.Random(20261201)
 cycles = random_matrices(rng, 120) + random_races(rng, 25)
 check(cycles > 100, f"only {cycles} cycles compared: the check is too weak")
-if failures:
-    for f in failures[:20]:
-        print("FAIL:", f)
-    sys.exit(1)
-print(f"ok: components, top cycles, {cycles} cycles, strongest cycles and counters agree with NetworkX")
+check.finish(f"ok: components, top cycles, {cycles} cycles, strongest cycles and counters agree with NetworkX")

@@ -12,30 +12,23 @@ give 1/3 each. Random matrices go through --matrix; random races through specs.
 
 Usage: check_tournament_scipy.py BINARY SOURCE_DIR
 """
-import json
 import os
 import random
-import subprocess
 import sys
+
+from script_support import Checks, run_json
 import tempfile
 
 from scipy.optimize import linprog
 
 BINARY = sys.argv[1]
-failures = []
+check = Checks()
 TOL = 1e-7
 
 
-def check(cond, what):
-    if not cond:
-        failures.append(what)
-
 
 def run(args):
-    p = subprocess.run([BINARY, "tournament", *args, "--json"], capture_output=True, text=True)
-    if p.returncode != 0:
-        raise SystemExit(f"FAIL: overshoot tournament {' '.join(args)}: {p.stderr.strip()}")
-    return json.loads(p.stdout)
+    return run_json(BINARY, ["tournament", *args, "--json"])
 
 
 def solve(a):
@@ -130,8 +123,4 @@ for r in range(15):
     compare(doc, doc["margins"], f"race {' '.join(args)}")
 
 check(unique_cases >= 40, f"only {unique_cases} cases with a unique mix: the comparison is too weak")
-if failures:
-    for f in failures[:20]:
-        print("FAIL:", f)
-    sys.exit(1)
-print(f"ok: equilibrium values and mixes agree with SciPy ({unique_cases} unique mixes compared weight by weight)")
+check.finish(f"ok: equilibrium values and mixes agree with SciPy ({unique_cases} unique mixes compared weight by weight)")
