@@ -182,12 +182,16 @@ AloneValues values_of(const AloneT<long double>& t, int n) {
 
 // A proven bound w on the rounds a piece can still spend inside its block of
 // squares whatever it chooses, for the squares of blocks with loops (options
-// that never leave a square count as ending there: they finish nothing).
+// that never leave a square count as ending there: they finish nothing; 0 on
+// other squares).
 // Throws LimitError when no finite bound is found (policy/loops.hpp).
 std::vector<long double> rounds_alone(const std::vector<Moves<long double>>& menu, const SquareBlocks& blocks,
                                       long double rel) {
     const int n = menu.front().length;
-    std::vector<long double> w(static_cast<std::size_t>(n) + 1, 0.0L);
+    // `cur` holds the block being solved; other squares read 0, so w counts
+    // the rounds spent inside the block (what its error needs), and is
+    // scaled by 1 + eta (plus eta) and checked once the block is done.
+    std::vector<long double> w(static_cast<std::size_t>(n) + 1, 0.0L), cur = w;
     auto phi = [&](int s, const std::vector<long double>& x, bool solve) {
         long double most = 0;
         for (const auto& m : menu) {
@@ -198,39 +202,35 @@ std::vector<long double> rounds_alone(const std::vector<Moves<long double>>& men
         }
         return most;
     };
-    std::vector<int> looping;
     for (int b = 0; b < blocks.count(); ++b) {
         if (blocks.single(b)) continue;
-        for (int i = blocks.start[b]; i < blocks.start[b + 1]; ++i) looping.push_back(blocks.squares[i]);
+        const std::vector<int> block(blocks.squares.begin() + blocks.start[b],
+                                     blocks.squares.begin() + blocks.start[b + 1]);
         long double best = INFINITY;
         for (int sweep = 0, stale = 0; sweep < 1000000 && stale < 64; ++sweep) {
             long double moved = 0;
-            for (int i = blocks.start[b]; i < blocks.start[b + 1]; ++i) {
-                const int s = blocks.squares[i];
-                const long double x = phi(s, w, true);
-                moved = std::max(moved, std::fabs(x - w[s]) / std::max(1.0L, x));
-                w[s] = x;
+            for (int s : block) {
+                const long double x = phi(s, cur, true);
+                moved = std::max(moved, std::fabs(x - cur[s]) / std::max(1.0L, x));
+                cur[s] = x;
             }
-            if (!std::isfinite(moved) || w[blocks.squares[blocks.start[b]]] > 1e15L)
-                policy_detail::refuse_unbounded();
+            if (!std::isfinite(moved) || cur[block[0]] > 1e15L) policy_detail::refuse_unbounded();
             if (moved <= 8 * std::numeric_limits<long double>::epsilon()) break;
             if (moved < best)
                 best = moved, stale = 0;
             else
                 ++stale;
         }
+        const std::vector<long double> found = cur;
+        bool ok = false;
+        for (long double eta = 1e-9L; eta < 1 && !ok; eta *= 64) {
+            for (int s : block) cur[s] = found[s] * (1 + eta) + eta;
+            ok = true;
+            for (int s : block) ok = ok && phi(s, cur, false) * (1 + rel) <= cur[s];
+        }
+        if (!ok) policy_detail::refuse_unbounded();
+        for (int s : block) w[s] = cur[s], cur[s] = 0;
     }
-    // Squares outside blocks with loops keep w = 0: only a block's own
-    // squares enter its bound, so w >= 1 + Q w is needed there only (with
-    // w >= 0 elsewhere, the inequality with every square implies it).
-    for (long double eta = 1e-9L; eta < 1; eta *= 64) {
-        std::vector<long double> v = w;
-        for (int s : looping) v[s] = w[s] * (1 + eta) + eta;
-        bool ok = true;
-        for (int s : looping) ok = ok && phi(s, v, false) * (1 + rel) <= v[s];
-        if (ok) return v;
-    }
-    policy_detail::refuse_unbounded();
     return w;
 }
 
@@ -241,7 +241,7 @@ std::pair<long double, long double> alone_error(const std::vector<Moves<long dou
                                                 const std::vector<int>& allowed, const AloneT<long double>& r,
                                                 const SquareBlocks& blocks, const std::vector<long double>& w,
                                                 long double rel) {
-    policy_detail::ErrorTally th(blocks.count(), 2 * rel), te(blocks.count(), 2 * rel);
+    policy_detail::ErrorTally th(blocks.count(), 1, 2 * rel), te(blocks.count(), 1, 2 * rel);
     for (int b = 0; b < blocks.count(); ++b) {
         if (blocks.single(b)) continue;
         for (int i = blocks.start[b]; i < blocks.start[b + 1]; ++i) {

@@ -60,7 +60,6 @@ struct Setting {
     RoundsBound w;
     long double rel = 0;        // relative rounding of one state's operator
     long double one_state = 0;  // error a one-state block adds
-    int blocks = 0;             // most blocks one chain of dependencies passes
     Setting(const std::vector<Chain>& a, const std::vector<Chain>& b)
         : ba(square_blocks(a)), bb(square_blocks(b)) {
         plan.a = &ba;
@@ -69,7 +68,6 @@ struct Setting {
                 bb.count() < static_cast<int>(bb.squares.size());
         plan.settle = 8 * std::numeric_limits<long double>::epsilon();
         plan.max_sweeps = 20000;
-        blocks = ba.count() + bb.count();
     }
     Setting(const Setting&) = delete;
     // w at a state: before A's move (or the round) and before B's move.
@@ -106,7 +104,7 @@ long double simultaneous_error(SimultaneousProgramme<T, V>& p, const Setting& st
     if constexpr (!std::is_floating_point_v<T>) {
         throw InternalError("policies: boards with loops are solved in floating point only");
     } else {
-        ErrorTally tally(st.blocks, st.one_state);
+        ErrorTally tally(st.ba.count(), st.bb.count(), st.one_state);
         const std::size_t n = static_cast<std::size_t>(st.ba.squares.size());
         p.step(st.plan, p.v, one, [&](int a, int b, int ka, int kb, const V& phi) {
             const std::size_t idx = static_cast<std::size_t>(a) * n + b;
@@ -123,7 +121,7 @@ long double alternating_error(AlternatingProgramme<T, V>& p, const Setting& st, 
     if constexpr (!std::is_floating_point_v<T>) {
         throw InternalError("policies: boards with loops are solved in floating point only");
     } else {
-        ErrorTally tally(st.blocks, st.one_state);
+        ErrorTally tally(st.ba.count(), st.bb.count(), st.one_state);
         const std::size_t n = static_cast<std::size_t>(st.ba.squares.size());
         p.step(st.plan, p.r, one_a, one_b, [&](int a, int b, int ka, int kb, const V& pa, const V& pb) {
             const std::size_t idx = static_cast<std::size_t>(a) * n + b;

@@ -40,6 +40,10 @@ inline void refuse_unbounded() {
 // The largest relative rounding of one state's operator: sums of at most k terms.
 inline long double step_rounding(int k) { return 2 * gamma_ld(k); }
 
+// Inside each block the race is counted until it leaves the block: the
+// values of other blocks read as 0 (each block is forgotten once done), so w
+// bounds the rounds spent inside the block, which is what its error needs.
+// Each block's w is scaled by 1 + eta (plus eta) and checked at once.
 template <class T>
 RoundsBound rounds_bound(const std::vector<Moves<T>>& A, const std::vector<int>& a_all,
                          const std::vector<Moves<T>>& B, const std::vector<int>& b_all, bool alternating,
@@ -47,92 +51,146 @@ RoundsBound rounds_bound(const std::vector<Moves<T>>& A, const std::vector<int>&
     RoundsBound out;
     const long double rel = step_rounding(k);
     const int n = A.front().length;
-    auto fail_if_unsettled = [&](const std::vector<long double>& w) {
-        plan.each_looping([&](int a, int b, int, int) {
-            const long double x = w[static_cast<std::size_t>(a) * n + b];
-            if (!std::isfinite(x) || x > 1e15L) refuse_unbounded();
-        });
+    const std::size_t cells = static_cast<std::size_t>(n) * n;
+    auto index = [n](int a, int b) { return static_cast<std::size_t>(a) * n + b; };
+    auto check_size = [](long double x) {
+        if (!std::isfinite(x) || x > 1e15L) refuse_unbounded();
+    };
+    // Tries eta = 1e-9, 6.4e-8, ...: scale(eta) writes the scaled block into
+    // the programme, holds() checks it; on success keep() stores it.
+    auto settle = [&](auto&& scale, auto&& holds, auto&& keep) {
+        for (long double eta = 1e-9L; eta < 1; eta *= 64) {
+            scale(eta);
+            if (holds()) {
+                keep();
+                return;
+            }
+        }
+        refuse_unbounded();
     };
     if (alternating) {
+        out.wa.assign(cells, 0);
+        out.wb.assign(cells, 0);
         Payoff<long double> pay{0, 0, 0, 0, 1};
         AlternatingProgramme<T, long double> p(A, Candidates{&a_all}, B, Candidates{&b_all}, pay);
-        auto most_e = [](std::size_t, int na, const int*, int nb, const int*, const long double* e) {
-            long double m = 0;
-            for (int q = 0; q < na * nb; ++q) m = std::max(m, e[q]);
-            return m;
-        };
         auto most = [](std::size_t, int m, const int*, const long double* y) {
             long double best = 0;
             for (int q = 0; q < m; ++q) best = std::max(best, y[q]);
             return best;
         };
-        p.sweep(plan, most_e, most);
-        fail_if_unsettled(p.r.va);
-        fail_if_unsettled(p.r.vb);
-        for (long double eta = 1e-9L; eta < 1; eta *= 64) {
-            AltValues<long double> w = p.r;
-            for (auto* v : {&w.va, &w.vb})
-                for (auto& x : *v) x = x * (1 + eta) + eta;
-            bool ok = true;
-            p.step(
-                plan, w,
-                [&](std::size_t, int m, const int*, const long double* z) { return most(0, m, nullptr, z); },
-                most,
-                [&](int a, int b, int, int, long double pa, long double pb) {
-                    const std::size_t idx = static_cast<std::size_t>(a) * n + b;
-                    ok = ok && pa * (1 + rel) <= w.va[idx] && pb * (1 + rel) <= w.vb[idx];
+        auto most_e = [](std::size_t, int na, const int*, int nb, const int*, const long double* e) {
+            long double m = 0;
+            for (int q = 0; q < na * nb; ++q) m = std::max(m, e[q]);
+            return m;
+        };
+        std::vector<std::pair<long double, long double>> found;
+        p.sweep(plan, most_e, most, [&](int ka, int kb) {
+            if (plan.several(ka, kb)) {
+                found.clear();
+                plan.each_in(ka, kb, [&](int a, int b) {
+                    const std::size_t i = index(a, b);
+                    check_size(p.r.va[i]);
+                    check_size(p.r.vb[i]);
+                    found.emplace_back(p.r.va[i], p.r.vb[i]);
                 });
-            if (ok) {
-                out.wa = std::move(w.va);
-                out.wb = std::move(w.vb);
-                return out;
+                settle(
+                    [&](long double eta) {
+                        std::size_t q = 0;
+                        plan.each_in(ka, kb, [&](int a, int b) {
+                            p.r.va[index(a, b)] = found[q].first * (1 + eta) + eta;
+                            p.r.vb[index(a, b)] = found[q++].second * (1 + eta) + eta;
+                        });
+                    },
+                    [&] {
+                        bool ok = true;
+                        p.step_block(
+                            plan, ka, kb, p.r,
+                            [&](std::size_t, int m, const int*, const long double* z) {
+                                return most(0, m, nullptr, z);
+                            },
+                            most,
+                            [&](int a, int b, int, int, long double pa, long double pb) {
+                                ok = ok && pa * (1 + rel) <= p.r.va[index(a, b)] &&
+                                     pb * (1 + rel) <= p.r.vb[index(a, b)];
+                            });
+                        return ok;
+                    },
+                    [&] {
+                        plan.each_in(ka, kb, [&](int a, int b) {
+                            out.wa[index(a, b)] = p.r.va[index(a, b)];
+                            out.wb[index(a, b)] = p.r.vb[index(a, b)];
+                        });
+                    });
             }
-        }
-        refuse_unbounded();
+            plan.each_in(ka, kb, [&](int a, int b) { p.clear(a, b); });
+        });
+        return out;
     }
+    out.wa.assign(cells, 0);
     Payoff<long double> pay{0, 0, 0, 0, 0};
     SimultaneousProgramme<T, long double> p(A, Candidates{&a_all}, B, b_all, Candidates{&b_all}, pay);
-    p.sweep(plan,
-            [](std::size_t, int na, const int*, int nb, const int*, const long double* c, const T* den) {
-                long double m = 0;
-                for (int q = 0; q < na * nb; ++q)
-                    if (den[q] > 0) m = std::max(m, (1 + c[q]) / den[q]);
-                return m;
-            });
-    fail_if_unsettled(p.v);
-    for (long double eta = 1e-9L; eta < 1; eta *= 64) {
-        std::vector<long double> w = p.v;
-        for (auto& x : w) x = x * (1 + eta) + eta;
-        bool ok = true;
-        p.step(
-            plan, w,
-            [](std::size_t, int na, const int*, int nb, const int*, const long double* c, const T* den,
-               long double x) {
-                long double m = 0;
-                for (int q = 0; q < na * nb; ++q)
-                    if (den[q] > 0) m = std::max(m, 1 + c[q] + (1 - den[q]) * x);
-                return m;
-            },
-            [&](int a, int b, int, int, long double phi) {
-                ok = ok && phi * (1 + rel) <= w[static_cast<std::size_t>(a) * n + b];
-            });
-        if (ok) {
-            out.wa = std::move(w);
-            return out;
-        }
-    }
-    refuse_unbounded();
+    std::vector<long double> found;
+    p.sweep(
+        plan,
+        [](std::size_t, int na, const int*, int nb, const int*, const long double* c, const T* den) {
+            long double m = 0;
+            for (int q = 0; q < na * nb; ++q)
+                if (den[q] > 0) m = std::max(m, (1 + c[q]) / den[q]);
+            return m;
+        },
+        [&](int ka, int kb) {
+            if (plan.several(ka, kb)) {
+                found.clear();
+                plan.each_in(ka, kb, [&](int a, int b) {
+                    check_size(p.v[index(a, b)]);
+                    found.push_back(p.v[index(a, b)]);
+                });
+                settle(
+                    [&](long double eta) {
+                        std::size_t q = 0;
+                        plan.each_in(ka, kb,
+                                     [&](int a, int b) { p.v[index(a, b)] = found[q++] * (1 + eta) + eta; });
+                    },
+                    [&] {
+                        bool ok = true;
+                        p.step_block(
+                            plan, ka, kb, p.v,
+                            [](std::size_t, int na, const int*, int nb, const int*, const long double* c,
+                               const T* den, long double x) {
+                                long double m = 0;
+                                for (int q = 0; q < na * nb; ++q)
+                                    if (den[q] > 0) m = std::max(m, 1 + c[q] + (1 - den[q]) * x);
+                                return m;
+                            },
+                            [&](int a, int b, int, int, long double phi) {
+                                ok = ok && phi * (1 + rel) <= p.v[index(a, b)];
+                            });
+                        return ok;
+                    },
+                    [&] {
+                        plan.each_in(ka, kb, [&](int a, int b) { out.wa[index(a, b)] = p.v[index(a, b)]; });
+                    });
+            }
+            plan.each_in(ka, kb, [&](int a, int b) { p.clear(a, b); });
+        });
     return out;
 }
 
 // Accumulates the proven error of a block-by-block solution: the largest
 // residual of a block of several states (plus its rounding) times the block's
-// largest w, and the rounding of a one-state block; a chain of dependencies
-// passes at most `blocks` blocks, each adding at most the largest of these.
+// largest w, and the rounding of a one-state block (`one_state`). A chain of
+// dependencies walks through block pairs (ka, kb) with neither index ever
+// decreasing; charge each pair to the index that grows when the chain leaves
+// it: the pairs charged to A have distinct ka, those charged to B distinct
+// kb. So every value is within the sum over ka of the worst pair with that
+// ka, plus the same over kb, plus the worst pair (the last one).
 class ErrorTally {
 public:
-    ErrorTally(int blocks, long double one_state) : blocks_(blocks), worst_(one_state) {}
-    // Feed the states of one block in a row (as SweepPlan::each_looping does).
+    ErrorTally(int a_blocks, int b_blocks, long double one_state)
+        : worst_a_(static_cast<std::size_t>(a_blocks), one_state),
+          worst_b_(static_cast<std::size_t>(b_blocks), one_state),
+          worst_(one_state) {}
+    // Feed the states of one block in a row (as the programmes' step does).
     void add(int ka, int kb, long double residual, long double w) {
         if (ka != ka_ || kb != kb_) close(), ka_ = ka, kb_ = kb;
         r_ = std::max(r_, residual);
@@ -140,15 +198,24 @@ public:
     }
     long double total() {
         close();
-        return static_cast<long double>(blocks_) * worst_;
+        long double sum = worst_;
+        for (long double x : worst_a_) sum += x;
+        for (long double x : worst_b_) sum += x;
+        // The sum's own rounding: a relative gamma of its length.
+        return sum * (1 + gamma_ld(static_cast<double>(worst_a_.size() + worst_b_.size() + 2)));
     }
 
 private:
     void close() {
-        if (ka_ >= 0) worst_ = std::max(worst_, r_ * w_);
+        if (ka_ >= 0) {
+            const long double e = r_ * w_;
+            worst_a_[ka_] = std::max(worst_a_[ka_], e);
+            worst_b_[kb_] = std::max(worst_b_[kb_], e);
+            worst_ = std::max(worst_, e);
+        }
         r_ = w_ = 0;
     }
-    int blocks_;
+    std::vector<long double> worst_a_, worst_b_;
     long double worst_;
     int ka_ = -1, kb_ = -1;
     long double r_ = 0, w_ = 0;

@@ -93,6 +93,11 @@ struct SweepPlan {
     // the largest change of the last sweep, reset by `visit`'s caller.
     template <class Visit>
     void run(Visit&& visit) {
+        run(visit, [](int, int) {});
+    }
+    // The same, calling done(ka, kb) after each block.
+    template <class Visit, class Done>
+    void run(Visit&& visit, Done&& done) {
         for (int ka = 0; ka < a->count(); ++ka)
             for (int kb = 0; kb < b->count(); ++kb) {
                 const bool loop = several(ka, kb);
@@ -111,18 +116,21 @@ struct SweepPlan {
                         ++stale;
                     if (moved <= settle || stale >= 64 || s + 1 >= max_sweeps) break;
                 }
+                done(ka, kb);
             }
     }
-    // Calls visit(a, b, ka, kb) for every state of every block of several states.
+    // Calls visit(a, b) for every state of block (ka, kb).
     template <class Visit>
-    void each_looping(Visit&& visit) const {
+    void each_in(int ka, int kb, Visit&& visit) const {
+        for (int ia = a->start[ka]; ia < a->start[ka + 1]; ++ia)
+            for (int ib = b->start[kb]; ib < b->start[kb + 1]; ++ib) visit(a->squares[ia], b->squares[ib]);
+    }
+    // Calls each(ka, kb) for every block of several states.
+    template <class Each>
+    void each_looping_block(Each&& each) const {
         for (int ka = 0; ka < a->count(); ++ka)
-            for (int kb = 0; kb < b->count(); ++kb) {
-                if (!several(ka, kb)) continue;
-                for (int ia = a->start[ka]; ia < a->start[ka + 1]; ++ia)
-                    for (int ib = b->start[kb]; ib < b->start[kb + 1]; ++ib)
-                        visit(a->squares[ia], b->squares[ib], ka, kb);
-            }
+            for (int kb = 0; kb < b->count(); ++kb)
+                if (several(ka, kb)) each(ka, kb);
     }
 };
 
@@ -158,28 +166,41 @@ public:
 
     template <class DecideA, class DecideB>
     void sweep(SweepPlan& plan, DecideA&& decide_a, DecideB&& decide_b) {
-        plan.run([&](int a, int b, bool loop) -> long double {
-            const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
-            terms(a, b, r);
-            for (int x = 0; x < na_; ++x) {
-                const Moves<T>& ma = A_[ai_[x]];
-                for (int z = 0; z < nb_; ++z) {
-                    const Moves<T>& mb = B_[bj_[z]];
-                    // 1 - s_i s_j written as l_i + s_i l_j: no cancellation for heavy options.
-                    const T den = ma.leave[a] + ma.stay[a] * mb.leave[b];
-                    e_[x * nb_ + z] = den > 0 ? V((X_[x] + ma.stay[a] * Y_[z]) / den) : pay_.neither;
+        sweep(plan, decide_a, decide_b, [](int, int) {});
+    }
+    template <class DecideA, class DecideB, class Done>
+    void sweep(SweepPlan& plan, DecideA&& decide_a, DecideB&& decide_b, Done&& done) {
+        plan.run(
+            [&](int a, int b, bool loop) -> long double {
+                const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
+                terms(a, b, r);
+                for (int x = 0; x < na_; ++x) {
+                    const Moves<T>& ma = A_[ai_[x]];
+                    for (int z = 0; z < nb_; ++z) {
+                        const Moves<T>& mb = B_[bj_[z]];
+                        // 1 - s_i s_j written as l_i + s_i l_j: no cancellation for heavy options.
+                        const T den = ma.leave[a] + ma.stay[a] * mb.leave[b];
+                        e_[x * nb_ + z] = den > 0 ? V((X_[x] + ma.stay[a] * Y_[z]) / den) : pay_.neither;
+                    }
                 }
-            }
-            const V va = decide_a(idx, na_, ai_, nb_, bj_, e_.data());
-            for (int z = 0; z < nb_; ++z) y_[z] = Y_[z] + B_[bj_[z]].stay[b] * va;
-            const V vb = decide_b(idx, nb_, bj_, y_.data());
-            long double moved = 0;
-            if (loop)
-                moved = std::max(gap(va, r.va[idx]), gap(vb, r.vb[idx])) / std::max(1.0L, magnitude(va));
-            r.va[idx] = va;
-            r.vb[idx] = vb;
-            return moved;
-        });
+                const V va = decide_a(idx, na_, ai_, nb_, bj_, e_.data());
+                for (int z = 0; z < nb_; ++z) y_[z] = Y_[z] + B_[bj_[z]].stay[b] * va;
+                const V vb = decide_b(idx, nb_, bj_, y_.data());
+                long double moved = 0;
+                if (loop)
+                    moved = std::max(gap(va, r.va[idx]), gap(vb, r.vb[idx])) / std::max(1.0L, magnitude(va));
+                r.va[idx] = va;
+                r.vb[idx] = vb;
+                return moved;
+            },
+            done);
+    }
+
+    // Forgets the values of one state (as if it had not been met).
+    void clear(int a, int b) {
+        const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
+        r.va[idx] = V{};
+        r.vb[idx] = V{};
     }
 
     // One move of the plain operator from the values x at every state of a
@@ -188,7 +209,12 @@ public:
     // `seen(a, b, ka, kb, phi_a, phi_b)` receives the results.
     template <class OneA, class OneB, class Seen>
     void step(const SweepPlan& plan, const AltValues<V>& x, OneA&& one_a, OneB&& one_b, Seen&& seen) {
-        plan.each_looping([&](int a, int b, int ka, int kb) {
+        plan.each_looping_block([&](int ka, int kb) { step_block(plan, ka, kb, x, one_a, one_b, seen); });
+    }
+    template <class OneA, class OneB, class Seen>
+    void step_block(const SweepPlan& plan, int ka, int kb, const AltValues<V>& x, OneA&& one_a, OneB&& one_b,
+                    Seen&& seen) {
+        plan.each_in(ka, kb, [&](int a, int b) {
             const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
             terms(a, b, x);
             for (int i = 0; i < na_; ++i) z_[i] = X_[i] + A_[ai_[i]].stay[a] * x.vb[idx];
@@ -264,15 +290,28 @@ public:
 
     template <class Decide>
     void sweep(SweepPlan& plan, Decide&& decide) {
-        plan.run([&](int a, int b, bool loop) -> long double {
-            const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
-            terms(a, b, v);
-            const V val = decide(idx, na_, ai_, nb_, bj_, c_.data(), den_.data());
-            const long double moved = loop ? gap(val, v[idx]) / std::max(1.0L, magnitude(val)) : 0;
-            v[idx] = val;
-            for (int j : b_all_) g_[j][idx] = h_[j] + B_[j].stay[b] * val;
-            return moved;
-        });
+        sweep(plan, decide, [](int, int) {});
+    }
+    template <class Decide, class Done>
+    void sweep(SweepPlan& plan, Decide&& decide, Done&& done) {
+        plan.run(
+            [&](int a, int b, bool loop) -> long double {
+                const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
+                terms(a, b, v);
+                const V val = decide(idx, na_, ai_, nb_, bj_, c_.data(), den_.data());
+                const long double moved = loop ? gap(val, v[idx]) / std::max(1.0L, magnitude(val)) : 0;
+                v[idx] = val;
+                for (int j : b_all_) g_[j][idx] = h_[j] + B_[j].stay[b] * val;
+                return moved;
+            },
+            done);
+    }
+
+    // Forgets the values of one state (as if it had not been met).
+    void clear(int a, int b) {
+        const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
+        v[idx] = V{};
+        for (int j : b_all_) g_[j][idx] = V{};
     }
 
     // One round of the plain operator from the values x (after sweep(), whose
@@ -282,12 +321,16 @@ public:
     // result. The stored g of those states is first rebuilt from x.
     template <class One, class Seen>
     void step(const SweepPlan& plan, const std::vector<V>& x, One&& one, Seen&& seen) {
-        plan.each_looping([&](int a, int b, int, int) {
+        plan.each_looping_block([&](int ka, int kb) { step_block(plan, ka, kb, x, one, seen); });
+    }
+    template <class One, class Seen>
+    void step_block(const SweepPlan& plan, int ka, int kb, const std::vector<V>& x, One&& one, Seen&& seen) {
+        plan.each_in(ka, kb, [&](int a, int b) {
             const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
             b_moves(a, b, x);
             for (int j : b_all_) g_[j][idx] = h_[j] + B_[j].stay[b] * x[idx];
         });
-        plan.each_looping([&](int a, int b, int ka, int kb) {
+        plan.each_in(ka, kb, [&](int a, int b) {
             const std::size_t idx = static_cast<std::size_t>(a) * n_ + b;
             terms(a, b, x);
             seen(a, b, ka, kb, one(idx, na_, ai_, nb_, bj_, c_.data(), den_.data(), x[idx]));

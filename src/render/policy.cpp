@@ -6,6 +6,7 @@
 
 #include "core/fraction.hpp"
 #include "race/exact.hpp"
+#include "race/outcome.hpp"
 #include "render/figures.hpp"
 #include "render/format.hpp"
 #include "render/document.hpp"
@@ -13,6 +14,18 @@
 namespace overshoot::render {
 
 namespace {
+
+// The ends of a proven interval rounded outward to double, so the printed
+// interval still holds the value.
+double rounded_down(long double x) {
+    double d = static_cast<double>(x);
+    return d > x ? std::nextafter(d, -INFINITY) : d;
+}
+double rounded_up(long double x) {
+    double d = static_cast<double>(x);
+    return d < x ? std::nextafter(d, INFINITY) : d;
+}
+
 
 std::string names_of(const std::vector<Option>& opts) {
     std::string s;
@@ -104,7 +117,7 @@ nlohmann::json choice_map(const Board& board, const std::vector<Choice>& choice)
 nlohmann::json outcomes_json(const PolicyOutcomes& o) {
     return {{"p_a_wins", static_cast<double>(o.p_a_wins)},   {"p_b_wins", static_cast<double>(o.p_b_wins)},
             {"p_tie", static_cast<double>(o.p_tie)},         {"p_neither", static_cast<double>(o.p_neither)},
-            {"margin", static_cast<double>(o.p_a_wins - o.p_b_wins)}, {"error_bound", static_cast<double>(o.bound)}};
+            {"margin", static_cast<double>(o.p_a_wins - o.p_b_wins)}, {"error_bound", bound_after_rounding(static_cast<double>(o.bound))}};
 }
 
 nlohmann::json exact_outcomes_json(const ExactPolicyOutcomes& e) {
@@ -173,8 +186,8 @@ nlohmann::json alone_policy_json(const AlonePolicyView& v) {
     j["menu"] = menu_json(menu);
     j["p_finish"] = static_cast<double>(r.best.p_finish[0]);
     j["expected_rounds"] = number_or_null(static_cast<double>(r.best.rounds[0]));
-    j["error_bound"] = static_cast<double>(r.bound);
-    j["relative_error_bound"] = static_cast<double>(r.relative_bound);
+    j["error_bound"] = bound_after_rounding(static_cast<double>(r.bound));
+    j["relative_error_bound"] = bound_after_rounding(static_cast<double>(r.relative_bound));
     j["method"] = r.iterated ? "iteration" : "backward";
     nlohmann::json fixed = nlohmann::json::array();
     for (std::size_t i = 0; i < menu.size(); ++i)
@@ -248,9 +261,9 @@ std::string duel_policy_text(const DuelPolicyView& v) {
                            d.sweeps);
     else if (d.iterated)
         out += fmt::format("pieces can move backward on this board: states in loops were solved by iteration ({} "
-                           "sweeps); the optimal {} is proven within [{:.15g}, {:.15g}]\n",
-                           d.sweeps, game ? "margin" : "P(A wins)", static_cast<double>(d.value_low),
-                           static_cast<double>(d.value_high));
+                           "sweeps); the optimal {} is proven within [{}, {}]\n",
+                           d.sweeps, game ? "margin" : "P(A wins)", rounded_down(d.value_low),
+                           rounded_up(d.value_high));
     if (game && v.order == Order::simultaneous)
         out += fmt::format("value of the game (margin): {:+.4e}, proven within [{:+.4e}, {:+.4e}]; {} of {} states "
                            "need a mixed choice\n",
@@ -304,12 +317,12 @@ nlohmann::json duel_policy_json(const DuelPolicyView& v) {
     j["p_tie"] = static_cast<double>(d.outcomes.p_tie);
     j["p_neither"] = static_cast<double>(d.outcomes.p_neither);
     j["margin"] = static_cast<double>(d.outcomes.p_a_wins - d.outcomes.p_b_wins);
-    j["error_bound"] = static_cast<double>(d.outcomes.bound);
+    j["error_bound"] = bound_after_rounding(static_cast<double>(d.outcomes.bound));
     j["method"] = d.iterated ? "iteration" : "backward";
     if (d.iterated) j["sweeps"] = d.sweeps;
     j["value"] = {{"value", static_cast<double>(d.value)},
-                  {"low", static_cast<double>(d.value_low)},
-                  {"high", static_cast<double>(d.value_high)}};
+                  {"low", rounded_down(d.value_low)},
+                  {"high", rounded_up(d.value_high)}};
     const FixedPolicy& best = c.fixed[c.best_fixed];
     j["best_fixed"] = {{"option", menu[c.best_fixed].name},
                        {"p_a_wins", static_cast<double>(best.outcomes.p_a_wins)},
