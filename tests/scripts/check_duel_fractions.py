@@ -27,7 +27,7 @@ import sys
 from fractions import Fraction
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
-from linear_fractions import gauss_jordan  # noqa: E402
+from script_support import gauss_jordan  # noqa: E402
 
 TOLERANCE = 1e-12
 

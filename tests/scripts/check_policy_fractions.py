@@ -38,7 +38,7 @@ from fractions import Fraction
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 from check_duel_fractions import add, fair, one_turn, to_prob  # noqa: E402
-from linear_fractions import gauss_jordan  # noqa: E402
+from script_support import gauss_jordan  # noqa: E402
 
 FAIL = []
 
