@@ -72,7 +72,7 @@ TEST_CASE("every per-length figure equals the single-board duel on random jump-f
                             : round % 4 == 2 ? Order::a_first
                                              : Order::b_first;
         const int L = 60 + static_cast<int>(rng() % 80);
-        for (LengthMethod m : {LengthMethod::series, LengthMethod::pairs}) {
+        for (LengthMethod m : {LengthMethod::series, LengthMethod::pairs, LengthMethod::closure}) {
             LengthSettings s;
             s.method = m;
             s.threads = 1;

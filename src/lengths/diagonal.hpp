@@ -10,9 +10,13 @@
 
 namespace overshoot::lengths_engine {
 
+// How the programme is run: every row cell by cell (the previous loop, kept
+// for timing), in row form (the same bits), or in row form on the zones only,
+// closed by the free walk (closure.hpp; falls back to rows where it does not apply).
+enum class DiagonalKind { cells, rows, closure };
+
 // Every length 1..L of one pair in the requested order; throws Cancelled.
-// `vectorised` false: every row cell by cell (the same bits, for timing).
 std::vector<LengthOutcome> diagonal_duels(const DistanceModel& A, const DistanceModel& B, Order order, int L,
-                                       std::atomic<bool>* cancel, bool vectorised = true);
+                                       std::atomic<bool>* cancel, DiagonalKind kind = DiagonalKind::rows);
 
 }  // namespace overshoot::lengths_engine

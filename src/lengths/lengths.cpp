@@ -110,6 +110,17 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
             finish(p.index, lengths_engine::combine(order, L, p.sim, p.af, p.bf, neither, p.close_bound), LengthMethod::series);
         }
     };
+    // A programme pair: the end-zone closure where it is chosen, else the whole programme.
+    auto programme = [&](std::size_t k) {
+        const DistanceModel& A = dist[requests[k].a];
+        const DistanceModel& B = dist[requests[k].b];
+        const bool closure = lengths_engine::closure_chosen(s.method, A, B, L);
+        const auto kind = closure ? lengths_engine::DiagonalKind::closure
+                          : s.method == LengthMethod::pairs_scalar ? lengths_engine::DiagonalKind::cells
+                                                                   : lengths_engine::DiagonalKind::rows;
+        finish(k, lengths_engine::diagonal_duels(A, B, order, L, s.cancel, kind),
+               closure ? LengthMethod::closure : LengthMethod::pairs);
+    };
     // Job 0 is the series group when there is one (handed out first), then one
     // job per programme pair. A cancelled job ends quietly; the flag stops the rest.
     const std::size_t first_pp = series_list.empty() ? 0 : 1;
@@ -122,10 +133,7 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
                     return;
                 }
                 const std::size_t k = pp_jobs[j - first_pp];
-                finish(k,
-                       lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel,
-                                                      s.method != LengthMethod::pairs_scalar),
-                       LengthMethod::pairs);
+                programme(k);
             } catch (const lengths_engine::Cancelled&) {
             }
         },
@@ -135,10 +143,7 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
     for (std::size_t k : fallback) {
         if (s.cancel && s.cancel->load()) break;
         try {
-            finish(k,
-                   lengths_engine::diagonal_duels(dist[requests[k].a], dist[requests[k].b], order, L, s.cancel,
-                                                  s.method != LengthMethod::pairs_scalar),
-                   LengthMethod::pairs);
+            programme(k);
         } catch (const lengths_engine::Cancelled&) {
             break;
         }

@@ -6,6 +6,7 @@
 #include <cmath>
 
 #include "core/error.hpp"
+#include "lengths/closure.hpp"
 #include "lengths/distance.hpp"
 
 namespace overshoot {
@@ -17,14 +18,16 @@ std::string_view to_string(LengthMethod m) {
         case LengthMethod::pairs: return "pairs";
         case LengthMethod::board: return "board";
         case LengthMethod::pairs_scalar: return "pairs-scalar";
+        case LengthMethod::closure: return "closure";
     }
     return "?";
 }
 
 LengthMethod parse_length_method(std::string_view t) {
-    for (auto m : {LengthMethod::automatic, LengthMethod::series, LengthMethod::pairs, LengthMethod::pairs_scalar})
+    for (auto m : {LengthMethod::automatic, LengthMethod::series, LengthMethod::pairs, LengthMethod::pairs_scalar,
+                   LengthMethod::closure})
         if (t == to_string(m)) return m;
-    throw InputError(fmt::format("method '{}': expected auto, series, pairs or pairs-scalar", t));
+    throw InputError(fmt::format("method '{}': expected auto, series, pairs, pairs-scalar or closure", t));
 }
 
 namespace lengths_engine {
@@ -48,13 +51,25 @@ bool series_chosen(LengthMethod method, double turns, int max_length) {
     switch (method) {
         case LengthMethod::series: return true;
         case LengthMethod::pairs:
-        case LengthMethod::pairs_scalar: return false;
+        case LengthMethod::pairs_scalar:
+        case LengthMethod::closure: return false;
         // Measured (docs/sweep.md): the series costs about 2 T (kA + kB) L
         // against 1.3 L^2 (kA + kB) for the programme.
         case LengthMethod::automatic: return turns <= 0.6 * max_length;
         case LengthMethod::board: break;  // not a method of the all-lengths engine
     }
     throw InternalError("series_chosen: board is not an all-lengths method");
+}
+
+bool closure_chosen(LengthMethod method, const DistanceModel& a, const DistanceModel& b, int max_length) {
+    if (!closure_applies(a, b)) return false;
+    if (method == LengthMethod::closure) return true;
+    if (method != LengthMethod::automatic) return false;
+    // The whole programme does 2 L^2 (kA + kB) multiply-adds (both orders of a
+    // coin race alike); the closure's are estimated the same way.
+    const double L = max_length;
+    const double whole = 2 * L * L * (static_cast<double>(a.moves.size() + b.moves.size()) + 2);
+    return closure_work(a, b, max_length) < whole;
 }
 
 }  // namespace lengths_engine

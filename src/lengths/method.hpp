@@ -15,10 +15,13 @@ namespace overshoot {
 // How the duels of a pair over lengths are computed. `board` (one length at a
 // time through duel(), for jumps and the rule bounce) is what a result says,
 // never a setting: parse_length_method accepts auto, series, pairs and
-// pairs-scalar. pairs: the diagonal programme in row form (vectorised);
+// pairs-scalar, closure. pairs: the diagonal programme in row form (vectorised);
 // pairs_scalar: the same programme cell by cell, the same bits, kept to be
 // timed side by side (its results say pairs).
-enum class LengthMethod { automatic, series, pairs, pairs_scalar, board };
+// closure: the programme on the end zones only, closed by the free walk
+// (docs/sweep.md, "End-zone closure"); auto takes it where it is estimated
+// cheaper than the whole programme.
+enum class LengthMethod { automatic, series, pairs, pairs_scalar, board, closure };
 
 std::string_view to_string(LengthMethod m);
 LengthMethod parse_length_method(std::string_view text);
@@ -55,6 +58,9 @@ double turns_estimate(const DistanceModel& a, const DistanceModel& b, double tar
 
 // The method's choice for a pair whose series would take `turns` turns.
 bool series_chosen(LengthMethod method, double turns, int max_length);
+
+// For a pair that takes the programme: whether the end-zone closure does it.
+bool closure_chosen(LengthMethod method, const DistanceModel& a, const DistanceModel& b, int max_length);
 
 }  // namespace lengths_engine
 

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <vector>
 
+#include "core/error.hpp"
 #include "core/limits.hpp"
 
 // load() and store() are inlined into every clone: no vector crosses a call
@@ -191,9 +192,11 @@ inline void zone_terms(const DistanceModel& B, int b, const double* vw, const do
 }  // namespace
 
 RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_first, int L, double* dw, double* dl,
-                        bool vectorised, std::atomic<bool>* cancel) {
+                        bool vectorised, std::atomic<bool>* cancel, Strip* strip) {
     const int ring = A.max_move + 1;
-    limits::check_memory(static_cast<std::uint64_t>(ring + 12) * (L + 1) * 2 * sizeof(double),
+    // A strip also keeps phi on the band: z_A rows and z_B columns of L + 1.
+    const std::uint64_t band = strip ? static_cast<std::uint64_t>(strip->za + strip->zb) : 0;
+    limits::check_memory((static_cast<std::uint64_t>(ring + 12) + band) * (L + 1) * 2 * sizeof(double),
                          "the pair programme of this sweep");
     const std::size_t stride = static_cast<std::size_t>(L) + 1;
     // G(a', b): the value once the first piece has moved to a' and before the
@@ -216,7 +219,22 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
     const int mmin = na > 0 ? A.moves.front() : 0, mmax = na > 0 ? A.moves.back() : 0;
     std::vector<double> pz(static_cast<std::size_t>(mmax) + 8, 0.0);
     for (int i = 0; i < na; ++i) pz[A.moves[i]] = A.move_p[i];
-    const int block = !vectorised ? 1 : std::min(mmin, 4) >= 2 ? std::min(mmin, 4) : 1;
+    // A strip does the rows beyond the first piece's zone itself (narrow rows).
+    const int block = !vectorised || strip ? 1 : std::min(mmin, 4) >= 2 ? std::min(mmin, 4) : 1;
+    const int za = strip ? strip->za : 0, zs = strip ? strip->zb : 0;
+    // Columns 1..top and rows 1..last: all of them without a strip.
+    const int top = strip ? std::min(L, strip->width) : L, last = strip ? std::min(L, strip->last_row) : L;
+    std::vector<double> xbuf(strip ? 8 * stride : 0);
+    if (strip) {
+        if (za != A.zone || zs != B.zone || A.p_zero != 0.0 || B.p_zero != 0.0 || na == 0 || nb == 0)
+            throw InternalError("diagonal_rows: a strip needs both zones and no move of 0");
+        const std::size_t rows = static_cast<std::size_t>(std::max(0, std::min(L, 2 * za) - za));
+        const std::size_t cols = static_cast<std::size_t>(std::max(0, std::min(L, 2 * zs) - zs));
+        strip->row_w.assign(rows * stride, 0.0);
+        strip->row_l.assign(rows * stride, 0.0);
+        strip->col_w.assign(cols * stride, 0.0);
+        strip->col_l.assign(cols * stride, 0.0);
+    }
     std::vector<const double*> sw, sl, rows_w(static_cast<std::size_t>(mmax) + 8), rows_l(rows_w.size());
     std::vector<double> sp;
     RowCounts counts;
@@ -231,7 +249,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
             rw[b] = B.stay[b] * v_w[b] + yw;
             rl[b] = B.stay[b] * v_l[b] + yl;
         }
-        shifted_rows(v_w, v_l, rw, rl, B.moves.data(), B.move_p.data(), nb, B.stay.data(), zb + 1, L + 1);
+        shifted_rows(v_w, v_l, rw, rl, B.moves.data(), B.move_p.data(), nb, B.stay.data(), zb + 1, top + 1);
         dw[a] = v_w[a];
         dl[a] = v_l[a];
         counts.multiply_adds += 2 * static_cast<std::uint64_t>(nb) * Lu;
@@ -239,11 +257,110 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
     };
     // A row of the free region with no self-loop: the block may start here.
     auto free_row = [&](int a) { return a > A.zone && a <= L && A.stay[a] == 0.0 && A.leave[a] == A.leave[A.zone + 1]; };
+    // A row beyond the first piece's zone under a strip: the cells of R
+    // (b <= zb) as the cell loop does them, phi on the free cells the band
+    // needs (every column for x <= 2za, else up to 2zb), and the G row of the
+    // masked V (0 on free cells), which later rows read.
+    auto strip_width = [&](int a) { return a <= 2 * za ? top : std::min(top, 2 * zs); };
+    // X of a strip row from the first piece's free moves, alone (blocks below).
+    auto strip_x = [&](int a) {
+        const int wide = strip_width(a);
+        sw.clear();
+        sl.clear();
+        sp.clear();
+        for (int i = 0; i < na; ++i) {
+            const std::size_t off = static_cast<std::size_t>((a - A.moves[i]) % ring) * stride;
+            sw.push_back(gw.data() + off);
+            sl.push_back(gl.data() + off);
+            sp.push_back(A.move_p[i]);
+        }
+        weighted_rows(xw.data(), sw.data(), sp.data(), na, 1.0, 1, wide + 1);
+        weighted_rows(xl.data(), sl.data(), sp.data(), na, 1.0, 1, wide + 1);
+        counts.multiply_adds += 2 * static_cast<std::uint64_t>(na) * static_cast<std::uint64_t>(wide);
+    };
+    auto strip_row = [&](int a, const double* x_w, const double* x_l) {
+        const int wide = strip_width(a);
+        const int zr = std::min(zs, wide), gtop = std::min(top, 2 * zs);
+        const double sa = A.stay[a], la = A.leave[a];
+        double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
+        double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
+        for (int b = 1; b <= zr; ++b) {
+            double yw, yl;
+            zone_terms(B, b, vw, vl, yw, yl);
+            const double den = la + sa * B.leave[b];
+            double w = 0, l = 0;
+            if (den > 0) {
+                w = (x_w[b] + sa * yw) / den;
+                l = (x_l[b] + sa * yl) / den;
+            }
+            vw[b] = w;
+            vl[b] = l;
+            rw[b] = B.stay[b] * w + yw;
+            rl[b] = B.stay[b] * l + yl;
+        }
+        // phi: what the programme computes at a free cell, V = (X + 0 Y) / (la + 0 lb) = X / la.
+        if (a <= 2 * za) {
+            double* pw = strip->row_w.data() + static_cast<std::size_t>(a - za - 1) * stride;
+            double* pl = strip->row_l.data() + static_cast<std::size_t>(a - za - 1) * stride;
+            for (int b = zs + 1; b <= wide; ++b) {
+                pw[L - b] = x_w[b] / la;
+                pl[L - b] = x_l[b] / la;
+            }
+        } else {
+            for (int b = zs + 1; b <= wide; ++b) {
+                strip->col_w[static_cast<std::size_t>(b - zs - 1) * stride + (L - a)] = x_w[b] / la;
+                strip->col_l[static_cast<std::size_t>(b - zs - 1) * stride + (L - a)] = x_l[b] / la;
+            }
+        }
+        // The masked row: V on R, 0 on the free cells the second piece's moves read.
+        std::fill(vw + zs + 1, vw + gtop + 1, 0.0);
+        std::fill(vl + zs + 1, vl + gtop + 1, 0.0);
+        if (gtop > zs) {
+            shifted_rows(vw, vl, rw, rl, B.moves.data(), B.move_p.data(), nb, B.stay.data(), zs + 1, gtop + 1);
+            counts.multiply_adds += 2 * static_cast<std::uint64_t>(nb) * static_cast<std::uint64_t>(gtop - zs);
+        }
+        // The ring slot last held a full row: clear what band rows would read.
+        if (a - ring <= za && gtop < top) {
+            std::fill(rw + gtop + 1, rw + top + 1, 0.0);
+            std::fill(rl + gtop + 1, rl + top + 1, 0.0);
+        }
+        if (a <= zs) {
+            dw[a] = vw[a];
+            dl[a] = vl[a];
+        }
+        ++counts.scalar_rows;
+    };
     int last_check = 0;
-    for (int a = 1; a <= L;) {
+    for (int a = 1; a <= last;) {
         if (cancel && a - last_check >= 16) {
             last_check = a;
             if (cancel->load(std::memory_order_relaxed)) throw Cancelled{};
+        }
+        if (strip && a > za) {
+            // Rows that read no row of their block (smallest move >= block) go
+            // together, as whole_block below; the same bits as one by one.
+            const int R = vectorised ? std::min({mmin, 4, L - a + 1}) : 1;
+            if (R >= 2) {
+                int wide = 0;
+                for (int r = 0; r < R; ++r) wide = std::max(wide, strip_width(a + r));
+                for (int s2 = a - mmax; s2 <= a + R - 1 - mmin; ++s2) {
+                    const std::size_t off = static_cast<std::size_t>(s2 % ring) * stride;
+                    rows_w[s2 - (a - mmax)] = gw.data() + off;
+                    rows_l[s2 - (a - mmax)] = gl.data() + off;
+                }
+                double* ow[4] = {xbuf.data(), xbuf.data() + 2 * stride, xbuf.data() + 4 * stride, xbuf.data() + 6 * stride};
+                double* ol[4] = {ow[0] + stride, ow[1] + stride, ow[2] + stride, ow[3] + stride};
+                auto kernel = R == 4 ? block_rows4 : R == 3 ? block_rows3 : block_rows2;
+                kernel(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, 1.0, 1, wide + 1);
+                counts.multiply_adds += 2 * static_cast<std::uint64_t>(na) * static_cast<std::uint64_t>(wide) * R;
+                for (int r = 0; r < R; ++r) strip_row(a + r, ow[r], ol[r]);
+                a += R;
+                continue;
+            }
+            strip_x(a);
+            strip_row(a, xw.data(), xl.data());
+            ++a;
+            continue;
         }
         bool whole_block = block > 1 && A.leave[a] > 0;
         for (int r = 0; r < block && whole_block; ++r) whole_block = free_row(a + r);
@@ -257,7 +374,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
                 rows_l[s - (a - mmax)] = gl.data() + off;
             }
             auto kernel = block == 4 ? block_rows4 : block == 3 ? block_rows3 : block_rows2;
-            kernel(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, A.leave[a], 1, L + 1);
+            kernel(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, mmax, a, A.leave[a], 1, top + 1);
             counts.multiply_adds += 2 * static_cast<std::uint64_t>(na) * Lu * block;
             for (int r = 0; r < block; ++r) finish_row(a + r, bw[r], bl[r]);
             a += block;
@@ -288,17 +405,17 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
         counts.multiply_adds += (2 * static_cast<std::uint64_t>(k) - nl) * Lu;
         if (vectorised && sa == 0.0 && la > 0) {
             // No self-loop: v = x / la (x + 0 y = x, la + 0 lb = la: the same bits).
-            weighted_rows(vw, sw.data(), sp.data(), k, la, 1, L + 1);
-            weighted_rows(vl, sl.data(), sp.data(), k, la, 1, L + 1);
+            weighted_rows(vw, sw.data(), sp.data(), k, la, 1, top + 1);
+            weighted_rows(vl, sl.data(), sp.data(), k, la, 1, top + 1);
             finish_row(a, vw, vl);
             ++a;
             continue;
         }
-        weighted_rows(xw.data(), sw.data(), sp.data(), k, 1.0, 1, L + 1);
-        weighted_rows(xl.data(), sl.data(), sp.data(), k, 1.0, 1, L + 1);
+        weighted_rows(xw.data(), sw.data(), sp.data(), k, 1.0, 1, top + 1);
+        weighted_rows(xl.data(), sl.data(), sp.data(), k, 1.0, 1, top + 1);
         double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
         double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
-        for (int b = 1; b <= L; ++b) {
+        for (int b = 1; b <= top; ++b) {
             double yw, yl;
             if (b <= zb)
                 zone_terms(B, b, vw, vl, yw, yl);

@@ -1,0 +1,113 @@
+// The end-zone closure of the all-lengths engine (src/lengths/closure.cpp).
+#include <gmpxx.h>
+
+#include <catch2/catch.hpp>
+#include <cmath>
+#include <string>
+#include <vector>
+
+#include "chain/chain.hpp"
+#include "core/board.hpp"
+#include "core/option.hpp"
+#include "lengths/lengths.hpp"
+#include "race/exact.hpp"
+
+using namespace overshoot;
+
+namespace {
+
+std::vector<PairRequest> every_pair(std::size_t n) {
+    std::vector<PairRequest> r;
+    for (std::size_t i = 0; i < n; ++i)
+        for (std::size_t j = i + 1; j < n; ++j) r.push_back({i, j});
+    return r;
+}
+
+std::vector<PairLengths> run(const std::vector<Option>& o, Overshoot rule, Order order, int L, LengthMethod m) {
+    LengthSettings s;
+    s.method = m;
+    s.threads = 2;
+    return all_lengths(o, rule, order, L, every_pair(o.size()), s);
+}
+
+// Closure and whole programme agree within the sum of their bounds, and the
+// closure's bound is at most twice the programme's.
+void require_agree(const std::vector<Option>& o, Overshoot rule, Order order, int L) {
+    auto closure = run(o, rule, order, L, LengthMethod::closure);
+    auto whole = run(o, rule, order, L, LengthMethod::pairs);
+    REQUIRE(closure.size() == whole.size());
+    for (std::size_t k = 0; k < closure.size(); ++k) {
+        REQUIRE(closure[k].method == LengthMethod::closure);
+        REQUIRE(whole[k].method == LengthMethod::pairs);
+        for (int d = 1; d <= L; ++d) {
+            const LengthOutcome& x = closure[k].by_length[d];
+            const LengthOutcome& y = whole[k].by_length[d];
+            INFO(o[closure[k].a].name << " vs " << o[closure[k].b].name << " at " << d);
+            const double allowed = x.bound + y.bound;
+            REQUIRE(std::fabs(x.p_a_wins - y.p_a_wins) <= allowed);
+            REQUIRE(std::fabs(x.p_b_wins - y.p_b_wins) <= allowed);
+            REQUIRE(std::fabs(x.p_tie - y.p_tie) <= allowed);
+            REQUIRE(x.p_neither == y.p_neither);
+            REQUIRE(x.bound <= 2 * y.bound);
+        }
+    }
+}
+
+std::vector<Option> options(std::initializer_list<const char*> names) {
+    std::vector<Option> o;
+    for (const char* n : names) o.push_back(parse_option(n));
+    return o;
+}
+
+}  // namespace
+
+TEST_CASE("the closure agrees with the whole programme on heavy pairs over lengths 1..2000", "[lengths][closure]") {
+    // Every pair of 5d12, 4d10, 3d20 and 6d20: the faster piece enters its zone
+    // first from either seat, and 4d10 against 3d20 are close in speed (both
+    // bands of the closure are read).
+    require_agree(options({"5d12", "4d10", "3d20", "6d20"}), Overshoot::stay, Order::simultaneous, 2000);
+}
+
+TEST_CASE("the closure agrees with the whole programme for every order and both rules", "[lengths][closure]") {
+    for (Overshoot rule : {Overshoot::stay, Overshoot::pass})
+        for (Order order : {Order::coin, Order::a_first, Order::b_first}) {
+            INFO("rule " << static_cast<int>(rule) << " order " << static_cast<int>(order));
+            // Slow and light pieces too: many rounds of convolution powers,
+            // custom dice, a constant added, zones of different widths.
+            require_agree(options({"6d20", "2d4", "[1,3,8]", "1d6+2", "3d6"}), rule, order, 400);
+        }
+}
+
+TEST_CASE("the closure holds the exact duel inside its bound beyond the end zones", "[lengths][closure]") {
+    // Exact fractions (GMP, race/exact.cpp) at lengths past both zones, where
+    // the closure's free-walk sums give the result.
+    for (auto names : {std::vector<const char*>{"2d4", "3d6"}, std::vector<const char*>{"[1,3,8]", "2d6"}}) {
+        std::vector<Option> o;
+        for (const char* n : names) o.push_back(parse_option(n));
+        const int L = 44;
+        for (Order order : {Order::simultaneous, Order::a_first}) {
+            auto res = run(o, Overshoot::stay, order, L, LengthMethod::closure);
+            REQUIRE(res[0].method == LengthMethod::closure);
+            for (int len : {5, 19, 25, 37, 44}) {
+                Board board = make_board(len, Overshoot::stay, {});
+                ExactDuel e = exact_duel(build_chain(board, o[0]), build_chain(board, o[1]), order);
+                const LengthOutcome& x = res[0].by_length[len];
+                INFO(names[0] << " vs " << names[1] << " at " << len);
+                const mpq_class bound(x.bound);
+                REQUIRE(abs(mpq_class(x.p_a_wins) - e.p_a_wins) <= bound);
+                REQUIRE(abs(mpq_class(x.p_b_wins) - e.p_b_wins) <= bound);
+                if (order == Order::simultaneous) REQUIRE(abs(mpq_class(x.p_tie) - e.p_tie) <= bound);
+            }
+        }
+    }
+}
+
+TEST_CASE("auto takes the closure for fast heavy pairs and the whole programme for slow ones", "[lengths][closure]") {
+    auto fast = run(options({"6d20", "5d12"}), Overshoot::stay, Order::simultaneous, 2000, LengthMethod::automatic);
+    REQUIRE(fast[0].method == LengthMethod::closure);
+    // A move of 0 leaves the free walk with a stay: the closure does not apply.
+    auto idle = run(options({"[0,5,9]", "5d12"}), Overshoot::stay, Order::simultaneous, 300, LengthMethod::closure);
+    REQUIRE(idle[0].method == LengthMethod::pairs);
+    REQUIRE(parse_length_method("closure") == LengthMethod::closure);
+    REQUIRE(to_string(LengthMethod::closure) == "closure");
+}
