@@ -10,6 +10,7 @@
 
 #include "certify/certificate.hpp"
 #include "core/error.hpp"
+#include "race/duel.hpp"
 #include "render/certificate.hpp"
 
 #include "support.hpp"
@@ -185,4 +186,37 @@ TEST_CASE("the 600-square cycle certificate is reproduced byte for byte", "[.][c
     CheckReport r = check_certificate(c, text, 2);
     INFO(r.failure);
     CHECK(r.holds);
+}
+
+TEST_CASE("certificates carry head starts, and the check re-derives them", "[certify][head-start]") {
+    auto o = opts({"1d6", "2d6"});
+    for (const Board& b : {make_board(30, Overshoot::stay, {{4, 9}}), make_board(14, Overshoot::bounce, {{11, 3}})}) {
+        // Who wins with a head start of 4 for 2d6 is computed, then certified that way round.
+        const Chain x = build_chain(b, o[0]), y = build_chain(b, o[1], 4);
+        const bool first = duel(x, y, Order::simultaneous).a_beats_b();
+        std::vector<Option> w = first ? o : std::vector<Option>{o[1], o[0]};
+        std::vector<int> starts = first ? std::vector<int>{0, 4} : std::vector<int>{4, 0};
+        const Certificate c = certify(claim_of(ClaimKind::winner, w), b, Order::simultaneous, w, 2, false, starts);
+        CHECK(c.statement.find("2d6 starts on 4") != std::string::npos);
+        const std::string text = write(c);
+        REQUIRE(recheck(text).holds);
+        CHECK(parse_certificate(text, "t").starts == starts);
+        // Another head start, statement mended to match: the numbers no longer hold.
+        auto j = nlohmann::json::parse(text);
+        j["board"]["head_starts"]["2d6"] = 3;
+        const std::string st = j["claim"]["statement"];
+        j["claim"]["statement"] = st.substr(0, st.find("2d6 starts on 4")) + "2d6 starts on 3)";
+        CHECK_FALSE(recheck(j.dump()).holds);
+        // Without its head start the statement differs.
+        auto k = nlohmann::json::parse(text);
+        k["board"].erase("head_starts");
+        CHECK_FALSE(recheck(k.dump()).holds);
+        // Malformed head starts: an unknown option, a square off the board.
+        auto m = nlohmann::json::parse(text);
+        m["board"]["head_starts"]["3d6"] = 2;
+        CHECK_THROWS_AS(parse_certificate(m.dump(), "t"), InputError);
+        auto n = nlohmann::json::parse(text);
+        n["board"]["head_starts"]["2d6"] = 99;
+        CHECK_THROWS_AS(parse_certificate(n.dump(), "t"), InputError);
+    }
 }

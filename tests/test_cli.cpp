@@ -659,3 +659,39 @@ TEST_CASE("cli: the certify line a search prints certifies its cycle", "[cli]") 
     REQUIRE(c.status == 0);
     CHECK(run({"check", cert.string()}).status == 0);
 }
+
+TEST_CASE("cli: head starts reach duel, tournament, certify and search, and nothing else", "[cli][head-start]") {
+    // A search with head starts prints a certify line that certifies as it is.
+    Run r = run({"search", "1d6", "2d6", "3d6", "--length", "100", "--cycle", "1d6 > 3d6 > 2d6 > 1d6", "--from", "98",
+                 "--to", "93..96", "--head-starts", "3", "--keep", "1", "--beam", "2", "--sample", "20"});
+    REQUIRE(r.status == 0);
+    const std::string key = "Certify its cycle:     overshoot ";
+    const auto at = r.out.find(key);
+    REQUIRE(at != std::string::npos);
+    std::string line = r.out.substr(at + key.size());
+    line = line.substr(0, line.find('\n'));
+    CHECK(line.find("--head-start") != std::string::npos);
+    const fs::path cert = scratch() / "search-head-start.json";
+    line.replace(line.find("cycle.json"), 10, cert.string());
+    Run c = run_shell(quote(OVERSHOOT_BINARY) + " " + line, scratch() / "stderr.txt");
+    INFO(line << "\n" << c.err);
+    REQUIRE(c.status == 0);
+    Run k = run({"check", cert.string()});
+    CHECK(k.status == 0);
+    CHECK(k.out.find("2d6 starts on 3") != std::string::npos);
+    // duel and tournament show the head start; a different start gives a different race.
+    Run d = run({"duel", "1d6", "2d6", "--length", "30", "--head-start", "2d6:4", "--json"});
+    REQUIRE(d.status == 0);
+    CHECK(d.json()["board"]["head_starts"]["2d6"] == 4);
+    Run d0 = run({"duel", "1d6", "2d6", "--length", "30", "--json"});
+    CHECK(d.json()["p_a_wins"] != d0.json()["p_a_wins"]);
+    Run t = run({"tournament", "1d6", "2d6", "--length", "30", "--head-start", "2d6:4", "--json"});
+    REQUIRE(t.status == 0);
+    CHECK(t.json()["wins"][0][1].get<double>() == Approx(d.json()["p_a_wins"].get<double>()).margin(1e-12));
+    // Commands whose engines start every piece on 0 refuse rather than ignore.
+    expect_one_line_error({"profile", "1d6", "--length", "30", "--head-start", "1d6:4"}, "square 0");
+    expect_one_line_error({"policy", "--menu", "1d6,2d6", "--length", "30", "--head-start", "1d6:4"}, "square 0");
+    expect_one_line_error({"duel", "1d6", "2d6", "--length", "30", "--head-start", "3d6:4"}, "3d6");
+    expect_one_line_error({"duel", "1d6", "2d6", "--length", "30", "--head-start", "1d6:30"}, "0..29");
+    expect_one_line_error({"search", "1d6", "2d6", "--length", "30", "--head-starts", "30"}, "--head-starts");
+}

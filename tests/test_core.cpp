@@ -19,6 +19,7 @@
 #include "core/limits.hpp"
 #include "core/option.hpp"
 #include "core/scenario.hpp"
+#include "core/setup.hpp"
 
 using namespace overshoot;
 using W = std::vector<std::uint64_t>;
@@ -376,4 +377,51 @@ TEST_CASE("write_atomically: a chain of links is followed to its final target, w
     fs::create_symlink("loop1", dir / "loop2");
     CHECK_THAT(input_error([&] { write_atomically((dir / "loop1").string(), "x"); }), Catch::Contains("loop1"));
     fs::remove_all(dir);
+}
+
+TEST_CASE("head starts: the scenario's [head_starts], the flags, and who takes them", "[core][head-start]") {
+    const auto dir = std::filesystem::temp_directory_path() / "overshoot-head-starts";
+    std::filesystem::create_directories(dir);
+    const auto file = (dir / "h.toml").string();
+    {
+        std::ofstream out(file);
+        out << "[board]\nlength = 30\njumps = [[4, 9]]\n\n[options]\nsteady = \"1d6\"\nbold = \"2d6\"\n\n"
+               "[head_starts]\nbold = 4\nsteady = 2\nother = 3\n";
+    }
+    const Scenario sc = load_scenario(file);
+    REQUIRE(sc.head_starts.size() == 3);
+    CHECK(sc.head_starts[0] == std::pair<std::string, int>{"bold", 4});  // file order
+    SetupRequest r;
+    r.scenario = file;
+    r.min_options = 2;
+    r.max_options = 2;
+    r.head_starts_allowed = true;
+    // A scenario may name options the command does not race ("other").
+    Setup s = resolve_setup(r);
+    CHECK(s.starts == std::vector<int>{2, 4});  // as given: 4 is a jump source, taken when the race starts
+    CHECK(s.has_head_starts());
+    // Flags replace the scenario's list.
+    r.head_starts = std::vector<std::string>{"steady:7"};
+    CHECK(resolve_setup(r).starts == std::vector<int>{7, 0});
+    // Refusals: a command that starts every piece on 0, an unknown option, a
+    // square off the board, a jump into the finish, twice, malformed.
+    SetupRequest plain = r;
+    plain.head_starts_allowed = false;
+    CHECK_THROWS_WITH(resolve_setup(plain), Catch::Contains("starts every piece on square 0"));
+    for (const char* bad : {"fast:3", "steady:30", "steady", "steady:x", ":3", "steady:-1"}) {
+        r.head_starts = std::vector<std::string>{bad};
+        CHECK_THROWS_AS(resolve_setup(r), InputError);
+    }
+    r.head_starts = std::vector<std::string>{"bold:2", "bold:3"};
+    CHECK_THROWS_WITH(resolve_setup(r), Catch::Contains("has a head start already"));
+    r.head_starts = std::vector<std::string>{"steady:0"};
+    CHECK_FALSE(resolve_setup(r).has_head_starts());
+    // No head start at all is fine everywhere.
+    plain.head_starts = std::vector<std::string>{};
+    CHECK_FALSE(resolve_setup(plain).has_head_starts());
+    CHECK_THROWS_AS(parse_scenario("[head_starts]\nbold = \"4\"\n", "x"), InputError);
+    CHECK_THROWS_AS(parse_scenario("[head_starts]\nbold = -1\n", "x"), InputError);
+    std::filesystem::remove_all(dir);
+    // A start whose jump leads into the finish is no start.
+    CHECK_THROWS_WITH(resolve_start(make_board(10, Overshoot::stay, {{6, 10}}), 6), Catch::Contains("finish"));
 }

@@ -14,6 +14,7 @@
 #include "core/error.hpp"
 #include "core/option.hpp"
 #include "race/duel.hpp"
+#include "lengths/lengths.hpp"
 #include "race/outcome.hpp"
 #include "render/document.hpp"
 
@@ -370,4 +371,88 @@ TEST_CASE("outcome: a pair is decided only beyond its bound, never at it", "[rac
     CHECK(decided(0.0, 0.0) == 0);
     // The bound of a margin rounded to double is wider than the probabilities' bound.
     CHECK(rounded_margin_bound(0.0) > 0.0);
+}
+
+// Head starts. On a board without jumps under the rule stay (or pass) a
+// piece's moves from square s depend only on its distance L - s to the finish
+// (a move m finishes when m = L - s, is refused under stay when m > L - s, and
+// otherwise leaves the distance L - s - m), so a piece starting on h on a
+// board of length L walks exactly as one starting on 0 on a board of length
+// L - h. Proof by induction on turns: the distributions of distances agree
+// after every turn. Hence, pieces moving independently, (1) both pieces with
+// a head start h on length L race as on length L - h, and (2) one piece with a
+// head start h against the other on 0 wins with sum_t P(T_A^{L-h} = t)
+// P(T_B^L > t) in simultaneous order (DESIGN.md, "Semantics"). Both facts are
+// proved here, not published; the engines below must meet them.
+TEST_CASE("head starts: a head start h on length L is the board of length L - h", "[race][head-start]") {
+    const Option a = parse_option("1d6"), b = parse_option("2d6");
+    for (Overshoot rule : {Overshoot::stay, Overshoot::pass}) {
+        for (int h : {1, 7, 23}) {
+            const int L = 60;
+            const Board full = make_board(L, rule, {}), shorter = make_board(L - h, rule, {});
+            // (1) both pieces start on h: the duel of length L - h, by every method.
+            const Chain ah = build_chain(full, a, h), bh = build_chain(full, b, h);
+            const Chain a0 = build_chain(shorter, a), b0 = build_chain(shorter, b);
+            for (DuelMethod m : {DuelMethod::pairs, DuelMethod::zone, DuelMethod::series, DuelMethod::product}) {
+                DuelSettings s;
+                s.method = m;
+                const DuelResult x = duel(ah, bh, Order::simultaneous, s), y = duel(a0, b0, Order::simultaneous, s);
+                const double tol = m == DuelMethod::product ? 1e-12 : 1e-14;
+                CHECK(static_cast<double>(x.p_a_wins) == Approx(static_cast<double>(y.p_a_wins)).margin(tol));
+                CHECK(static_cast<double>(x.p_b_wins) == Approx(static_cast<double>(y.p_b_wins)).margin(tol));
+                CHECK(static_cast<double>(x.p_tie) == Approx(static_cast<double>(y.p_tie)).margin(tol));
+            }
+            // ... and the all-lengths engine's duel at length L - h.
+            const auto lens = all_lengths({a, b}, rule, Order::simultaneous, L, {{0, 1}});
+            const DuelResult x = duel(ah, bh, Order::simultaneous);
+            CHECK(lens[0].by_length[L - h].p_a_wins == Approx(static_cast<double>(x.p_a_wins)).margin(1e-13));
+            CHECK(lens[0].by_length[L - h].p_b_wins == Approx(static_cast<double>(x.p_b_wins)).margin(1e-13));
+            // (2) A on h, B on 0: the sum over turns of A's finishing times on
+            // length L - h against B's survival on length L.
+            const Chain b_full = build_chain(full, b);
+            Series sa(a0), sb(b_full);
+            long double win = 0, loss = 0;
+            while (sa.alive() + sb.alive() > 1e-18L) {
+                const long double fa = sa.step(), fb = sb.step();
+                win += fa * sb.survival();
+                loss += fb * sa.survival();
+            }
+            for (Order order : {Order::simultaneous}) {
+                const DuelResult d = duel(ah, b_full, order);
+                CHECK(static_cast<double>(d.p_a_wins) == Approx(static_cast<double>(win)).margin(1e-13));
+                CHECK(static_cast<double>(d.p_b_wins) == Approx(static_cast<double>(loss)).margin(1e-13));
+            }
+        }
+    }
+}
+
+TEST_CASE("head starts: every method agrees on boards with jumps and bounce", "[race][head-start]") {
+    // On general boards the distance argument fails (a jump or a bounce ties a
+    // square to the board); the methods are independent ways to the same number.
+    const Option a = parse_option("1d6"), b = parse_option("2d6");
+    const Board fwd = make_board(40, Overshoot::stay, {{5, 17}, {22, 31}});
+    const Board back = make_board(30, Overshoot::bounce, {{9, 2}, {25, 12}});
+    // Start on a jump source: the piece takes the jump at once (rests on 17).
+    CHECK(build_chain(fwd, a, 5).start == 17);
+    CHECK_THROWS_AS(build_chain(fwd, a, 40), InputError);
+    for (Order order : {Order::simultaneous, Order::a_first, Order::coin}) {
+        const Chain x = build_chain(fwd, a, 5), y = build_chain(fwd, b, 3);
+        DuelSettings p, z, q;
+        p.method = DuelMethod::pairs;
+        z.method = DuelMethod::zone;
+        q.method = DuelMethod::product;
+        const DuelResult rp = duel(x, y, order, p), rz = duel(x, y, order, z), rq = duel(x, y, order, q);
+        CHECK(static_cast<double>(rz.p_a_wins) == Approx(static_cast<double>(rp.p_a_wins)).margin(1e-13));
+        CHECK(static_cast<double>(rq.p_a_wins) == Approx(static_cast<double>(rp.p_a_wins)).margin(1e-11));
+        const Chain u = build_chain(back, a, 4), v = build_chain(back, b, 0);
+        DuelSettings s;
+        s.method = DuelMethod::series;
+        const DuelResult ss = duel(u, v, order, s), sq = duel(u, v, order, q);
+        CHECK(static_cast<double>(ss.p_a_wins) == Approx(static_cast<double>(sq.p_a_wins)).margin(1e-11));
+        CHECK(static_cast<double>(ss.p_tie) == Approx(static_cast<double>(sq.p_tie)).margin(1e-11));
+    }
+    // A head start changes the answer (the check above is not vacuous).
+    const DuelResult with = duel(build_chain(fwd, a, 5), build_chain(fwd, b), Order::simultaneous);
+    const DuelResult without = duel(build_chain(fwd, a), build_chain(fwd, b), Order::simultaneous);
+    CHECK(std::fabs(with.margin() - without.margin()) > 1e-3);
 }

@@ -1,5 +1,5 @@
-// Board search: scores of each target, the cycle parser, exhaustive single
-// jumps against a loop written here, and the beam search's determinism.
+// Board search (src/search/search.cpp): exhaustive single jumps and head
+// starts against loops written here, the beam search's determinism, refusals.
 // The Python brute force over every jump is tests/scripts/check_search_brute.py.
 #include <catch2/catch.hpp>
 
@@ -20,44 +20,6 @@
 
 using namespace overshoot;
 using overshoot::testing::opts;
-
-namespace {
-
-// Margins of a 3 x 3 matrix from its upper triangle (antisymmetric).
-std::vector<double> margins3(double ab, double ac, double bc) {
-    return {0, ab, ac, -ab, 0, bc, -ac, -bc, 0};
-}
-
-}  // namespace
-
-TEST_CASE("search: the score of each target", "[search]") {
-    // A > B by 0.1, B > C by 0.2, C > A by 0.05: a cycle of strength 0.05 (its weakest arc).
-    const auto m = margins3(0.1, -0.05, 0.2);
-    CHECK(score_of(SearchTarget::cycle, {0, 1, 2}, 3, m) == Approx(0.05));
-    // The reverse orientation runs every arc backwards: its weakest is -0.2.
-    CHECK(score_of(SearchTarget::cycle, {0, 2, 1}, 3, m) == Approx(-0.2));
-    // Each option is beaten: A by C (0.05), B by A (0.1), C by B (0.2): no winner by 0.05.
-    CHECK(score_of(SearchTarget::no_winner, {}, 3, m) == Approx(0.05));
-    // With three options, strong connectivity needs the whole cycle: its weakest arc.
-    CHECK(score_of(SearchTarget::top_cycle, {}, 3, m) == Approx(0.05));
-    CHECK(score_of(SearchTarget::fair, {}, 3, m) == Approx(-0.2));
-    // A transitive digraph: A beats both, so the no-winner score is negative
-    // (A's best beater wins by -0.1); for strong connectivity C must reach
-    // someone, and its best arc is C -> B at -0.2.
-    const auto t = margins3(0.1, 0.3, 0.2);
-    CHECK(score_of(SearchTarget::no_winner, {}, 3, t) == Approx(-0.1));
-    CHECK(score_of(SearchTarget::top_cycle, {}, 3, t) == Approx(-0.2));
-}
-
-TEST_CASE("search: the target cycle as written", "[search]") {
-    const auto o = opts({"1d6", "2d6", "3d6"});
-    CHECK(parse_cycle("1d6 > 2d6 > 3d6 > 1d6", o) == std::vector<std::size_t>{0, 1, 2});
-    CHECK(parse_cycle("3d6>2d6>1d6", o) == std::vector<std::size_t>{2, 1, 0});
-    CHECK_THROWS_AS(parse_cycle("1d6 > 2d6 > 1d6", o), InputError);    // two options
-    CHECK_THROWS_AS(parse_cycle("1d6 > 4d6 > 3d6", o), InputError);    // unknown name
-    CHECK_THROWS_AS(parse_cycle("1d6 > 2d6 > 2d6 > 3d6", o), InputError);  // repeated
-    CHECK_THROWS_AS(parse_cycle("1d6 >> 2d6 > 3d6", o), InputError);   // empty name
-}
 
 TEST_CASE("search: one added jump is every jump, ranked by the tournament's margins", "[search]") {
     SearchSpec spec;
@@ -198,4 +160,76 @@ TEST_CASE("search: screening margins agree with the duel engine", "[search]") {
         REQUIRE(d.error_bound() < 1e-12);
         CHECK(screen_margin(screen_track(a), screen_track(c), order) == Approx(d.margin()).margin(1e-9));
     }
+}
+
+TEST_CASE("search: head starts alone are every assignment, each raced with race_matrix here", "[search][head-start]") {
+    SearchSpec spec;
+    spec.board = make_board(13, Overshoot::stay, {{4, 8}});
+    spec.options = opts({"1d3", "2d2", "1d4"});
+    spec.target = SearchTarget::cycle;
+    spec.cycle = {0, 1, 2};
+    spec.max_jumps = 0;
+    spec.head_start_max = 4;
+    spec.keep = 3;
+    spec.threads = 2;
+    const SearchResult r = search_board(spec);
+    CHECK(r.exhaustive);
+    CHECK(r.start_grid);
+    CHECK(r.boards_raced == 5 * 5 * 5);  // no start on 0..4 has a jump into the finish
+    double best = -std::numeric_limits<double>::infinity();
+    for (int x = 0; x <= 4; ++x)
+        for (int y = 0; y <= 4; ++y)
+            for (int z = 0; z <= 4; ++z) {
+                const Tournament t = analyse(race_matrix(spec.board, Order::simultaneous, spec.options, {}, 1, {x, y, z}));
+                best = std::max(best, score_of(SearchTarget::cycle, spec.cycle, 3, t.margin));
+            }
+    REQUIRE(r.best.size() == 3);
+    CHECK(r.best.front().score == Approx(best).margin(1e-12));
+    // Each reported board is what race_matrix gives with its start squares
+    // (the search's settings: no race lengths, so the shared-series method).
+    DuelSettings quick;
+    quick.want_median = false;
+    for (const auto& f : r.best) {
+        REQUIRE(f.starts.size() == 3);
+        const Tournament t = analyse(race_matrix(f.board, Order::simultaneous, spec.options, quick, 1, f.starts));
+        CHECK(score_of(SearchTarget::cycle, spec.cycle, 3, t.margin) == f.score);
+    }
+    // The printed flags and the scenario file carry the head starts.
+    const auto& f = r.best.front();
+    std::string flags;
+    for (std::size_t i = 0; i < 3; ++i)
+        if (f.starts[i]) flags += " --head-start " + spec.options[i].name + ":" + std::to_string(f.starts[i]);
+    CHECK(render::search_json(r, spec)["best"][0]["flags"] == render::board_flags(f.board, spec.order) + flags);
+    if (!flags.empty()) CHECK(render::scenario_toml(f.board, spec.order, spec.options, f.starts).find("[head_starts]") != std::string::npos);
+}
+
+TEST_CASE("search: head starts with jumps are a seeded beam, the same whatever the threads", "[search][head-start]") {
+    SearchSpec spec;
+    spec.board = make_board(20, Overshoot::stay, {});
+    spec.options = opts({"1d3", "2d2", "[1,1,4]"});
+    spec.target = SearchTarget::no_winner;
+    spec.max_jumps = 1;
+    spec.head_start_max = 5;
+    spec.beam = 3;
+    spec.sample = 25;
+    spec.keep = 4;
+    spec.threads = 1;
+    const SearchResult a = search_board(spec);
+    spec.threads = 2;
+    const SearchResult b = search_board(spec);
+    CHECK_FALSE(a.exhaustive);
+    CHECK(render::search_json(a, spec).dump() == render::search_json(b, spec).dump());
+    for (const auto& f : a.best) {
+        CHECK(f.added.size() <= 1);
+        for (int s : f.starts) CHECK((s >= 0 && s <= 5));
+    }
+    // No worse than head starts alone or one jump alone: the beam begins with every single change.
+    spec.max_jumps = 0;
+    CHECK(a.best.front().score >= search_board(spec).best.front().score);
+    spec.max_jumps = 1;
+    spec.head_start_max = 0;
+    CHECK(a.best.front().score >= search_board(spec).best.front().score);
+    // A head start bound off the board is refused.
+    spec.head_start_max = 20;
+    CHECK_THROWS_AS(search_board(spec), InputError);
 }

@@ -54,6 +54,7 @@ struct Certificate {
     Board board;            // the claim's board (crossover: at length `claim.at`)
     Order order = Order::simultaneous;
     std::vector<Option> options;  // exactly the options the claim names, in claim order
+    std::vector<int> starts;      // one start square per option, as given (empty: every piece on 0)
     std::vector<CertDuel> duels;
 };
 
@@ -64,7 +65,8 @@ struct NeededDuel {
     std::optional<Verdict> want;  // crossover: nullopt (the two must be decided and opposite)
 };
 std::vector<NeededDuel> needed_duels(const Claim& claim, int length);
-std::string claim_statement(const Claim& claim, const Board& board, Order order);
+// starts: one start square per claim option (empty: every piece on 0).
+std::string claim_statement(const Claim& claim, const Board& board, Order order, const std::vector<int>& starts = {});
 
 // Why a claim could not be certified (it is false, or undecided).
 struct ClaimFailure : std::runtime_error {
@@ -77,8 +79,9 @@ struct ClaimFailure : std::runtime_error {
 // always, with `residual`), the intervals come from a residual certificate.
 // Throws ClaimFailure when the claim does not hold, InputError on a
 // malformed claim.
+// starts: one start square per option (empty: every piece on 0).
 Certificate certify(const Claim& claim, const Board& board, Order order, const std::vector<Option>& options,
-                    int threads = 0, bool residual = false);
+                    int threads = 0, bool residual = false, const std::vector<int>& starts = {});
 
 // Reads a certificate JSON document; throws InputError naming the first
 // missing or malformed field.

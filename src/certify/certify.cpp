@@ -57,7 +57,7 @@ std::vector<NeededDuel> needed_duels(const Claim& c, int length) {
     return out;
 }
 
-std::string claim_statement(const Claim& c, const Board& b, Order order) {
+std::string claim_statement(const Claim& c, const Board& b, Order order, const std::vector<int>& starts) {
     std::string rel;
     const auto& o = c.options;
     auto list = [](const std::vector<std::string>& parts) {
@@ -87,6 +87,8 @@ std::string claim_statement(const Claim& c, const Board& b, Order order) {
         for (const Jump& j : b.jumps) jumps += fmt::format(" {}->{}", j.from, j.to);
     }
     std::string where = c.kind == ClaimKind::crossover ? std::string("a board") : fmt::format("a board of {} squares", b.length);
+    for (std::size_t i = 0; i < starts.size() && i < o.size(); ++i)
+        if (starts[i] != 0) jumps += fmt::format(", {} starts on {}", o[i], starts[i]);
     return fmt::format("{}, on {} (overshoot {}, {} turns, {})", rel, where, to_string(b.rule), to_string(order), jumps);
 }
 
@@ -165,7 +167,7 @@ void residual_values(CertDuel& d, ResidualWriting& w, const std::optional<ExactD
 }  // namespace
 
 Certificate certify(const Claim& claim, const Board& board, Order order, const std::vector<Option>& options,
-                    int threads, bool residual) {
+                    int threads, bool residual, const std::vector<int>& starts) {
     Certificate cert;
     cert.claim = claim;
     cert.board = board;
@@ -180,14 +182,19 @@ Certificate certify(const Claim& claim, const Board& board, Order order, const s
         by_name[options[i].name] = i;
     }
     cert.options = options;
-    cert.statement = claim_statement(claim, board, order);
+    if (!starts.empty() && starts.size() != options.size()) throw InternalError("certify: one start square per option");
+    bool any_start = false;
+    for (int q : starts) any_start = any_start || q != 0;
+    if (any_start) cert.starts = starts;
+    cert.statement = claim_statement(claim, board, order, cert.starts);
     // One board per length the claim needs (crossover: two).
     std::map<int, Board> boards;
     for (const auto& n : need)
         if (!boards.count(n.length)) boards[n.length] = make_board(n.length, board.rule, board.jumps);
     std::map<std::pair<int, std::size_t>, Chain> chains;
     for (const auto& [len, b] : boards)
-        for (std::size_t i = 0; i < options.size(); ++i) chains[{len, i}] = build_chain(b, options[i]);
+        for (std::size_t i = 0; i < options.size(); ++i)
+            chains[{len, i}] = build_chain(b, options[i], cert.starts.empty() ? 0 : cert.starts[i]);
     const std::size_t m = need.size();
     std::vector<std::optional<ExactDuel>> exact(m);
     std::vector<DuelResult> approx(m);

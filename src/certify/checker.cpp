@@ -102,7 +102,9 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
         // 2. The claim, its statement and the duels it needs.
         for (const auto& name : c.claim.options)
             if (!opt.count(name)) fail(fmt::format("claim: option '{}' is not among the options", name));
-        if (claim_statement(c.claim, c.board, c.order) != c.statement)
+        if (!c.starts.empty() && c.starts.size() != c.options.size())
+            fail("board: the head starts do not give one square per option");
+        if (claim_statement(c.claim, c.board, c.order, c.starts) != c.statement)
             fail("claim: the statement does not match the claim, its options and the board");
         if (c.claim.kind == ClaimKind::crossover && c.board.length != c.claim.at)
             fail(fmt::format("claim: a crossover at {} needs board length {}, not {}", c.claim.at, c.claim.at, c.board.length));
@@ -144,7 +146,12 @@ CheckReport check_certificate(const Certificate& c, const std::string& text, int
         std::map<std::pair<int, std::string>, Chain> chains;
         for (const CertDuel& d : c.duels)
             for (const auto* n : {&d.a, &d.b})
-                if (!chains.count({d.length, *n})) chains[{d.length, *n}] = build_chain(boards.at(d.length), *opt.at(*n));
+                if (!chains.count({d.length, *n})) {
+                    int start = 0;
+                    for (std::size_t i = 0; i < c.starts.size(); ++i)
+                        if (c.options[i].name == *n) start = c.starts[i];
+                    chains[{d.length, *n}] = build_chain(boards.at(d.length), *opt.at(*n), start);
+                }
         const std::size_t m = c.duels.size(), np = rep.primes.size();
         std::vector<DuelResult> approx(m);
         std::vector<std::optional<std::array<u64, 3>>> mod(m * np);

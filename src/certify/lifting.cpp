@@ -101,7 +101,7 @@ std::optional<mpq_class> reconstruct(const mpz_class& x, const mpz_class& M) {
 }
 
 struct Part {
-    std::array<mpq_class, 3> start;  // A wins, B wins, tie from (0, 0)
+    std::array<mpq_class, 3> start;  // A wins, B wins, tie from the start state
 };
 
 // Lifts all outcomes of one part at once; nullopt (with `why`) when it does not fit.
@@ -196,7 +196,7 @@ std::optional<Part> lift_part(const ProductChain& c, std::string& why) {
             }
         if (ok) {
             for (int o = 0; o < 3; ++o) {
-                out.start[o] = mpq_class(y[o][0], den);
+                out.start[o] = mpq_class(y[o][c.start], den);
                 out.start[o].canonicalize();
             }
             return out;

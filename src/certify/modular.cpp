@@ -95,7 +95,8 @@ std::optional<std::array<u64, 3>> forward(const Chain& A, const Chain& B, bool a
             for (int c = 0; c < 3; ++c) out[c] = mulmod(acc[c].get(p), inv, p);
         }
     }
-    return std::array<u64, 3>{x[0], x[1], x[2]};
+    const std::size_t at0 = (static_cast<std::size_t>(A.start) * n + B.start) * 3;
+    return std::array<u64, 3>{x[at0], x[at0 + 1], x[at0 + 2]};
 }
 
 // Gaussian elimination mod p with row pivoting on the product chain.
@@ -106,7 +107,8 @@ std::optional<std::array<u64, 3>> general(const Chain& A, const Chain& B, bool a
     for (int a = 0; a < n; ++a)
         for (int b = 0; b < n; ++b)
             if (A.resting[a] && B.resting[b] && !(A.stuck[a] && B.stuck[b])) idx[static_cast<std::size_t>(a) * n + b] = m++;
-    if (idx[0] < 0) return std::array<u64, 3>{0, 0, 0};
+    const int r0 = idx[static_cast<std::size_t>(A.start) * n + B.start];
+    if (r0 < 0) return std::array<u64, 3>{0, 0, 0};
     limits::check_memory(static_cast<std::uint64_t>(m) * (m + 3) * 8, "the modular check of this duel");
     const int cols = m + 3;
     std::vector<u64> mat(static_cast<std::size_t>(m) * cols, 0);
@@ -151,7 +153,6 @@ std::optional<std::array<u64, 3>> general(const Chain& A, const Chain& B, bool a
             for (int j = c; j < cols; ++j) at(r, j) = (at(r, j) + p - mulmod(f, at(c, j), p)) % p;
         }
     }
-    const int r0 = idx[0];
     return std::array<u64, 3>{at(r0, m), at(r0, m + 1), at(r0, m + 2)};
 }
 

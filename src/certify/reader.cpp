@@ -213,6 +213,27 @@ Certificate parse_certificate(const std::string& text, const std::string& source
             r.fail(p + ".denominator", fmt::format("{} differs from the sum of the weights, {}", o.denominator, total));
         c.options.push_back(std::move(o));
     }
+    // Head starts (optional): {"name": square}, each a square a piece can rest on.
+    if (b.contains("head_starts")) {
+        const json& hs = b["head_starts"];
+        if (!hs.is_object()) r.fail("board.head_starts", "expected an object {\"option name\": square}");
+        c.starts.assign(c.options.size(), 0);
+        for (auto it = hs.begin(); it != hs.end(); ++it) {
+            const std::string q = fmt::format("board.head_starts.{}", it.key());
+            std::size_t i = 0;
+            while (i < c.options.size() && c.options[i].name != it.key()) ++i;
+            if (i == c.options.size()) r.fail(q, "not among the options");
+            if (!it.value().is_number_unsigned() || it.value().get<std::uint64_t>() == 0 ||
+                it.value().get<std::uint64_t>() >= static_cast<std::uint64_t>(c.board.length))
+                r.fail(q, fmt::format("expected a square 1..{}", c.board.length - 1));
+            c.starts[i] = it.value().get<int>();
+            try {
+                resolve_start(c.board, c.starts[i]);
+            } catch (const InputError& e) {
+                r.fail(q, e.what());
+            }
+        }
+    }
     // Duels.
     const json& jd = r.field(j, "", "duels");
     if (!jd.is_array()) r.fail("duels", "expected a list");

@@ -113,11 +113,12 @@ ProductChain build_product_chain(const Chain& A, const Chain& B, Mover first) {
     ProductChain p;
     p.full = static_cast<u128>(A.denominator) * B.denominator;
     auto live = [&](int a, int b) { return !(A.stuck[a] && B.stuck[b]); };
-    // Live states reachable from (0, 0) through live states (dead ones only lead to dead ones).
+    // Live states reachable from the start through live states (dead ones only lead to dead ones).
     std::vector<int> idx(cells, -1);
-    if (live(0, 0)) {
-        std::deque<int> queue{0};
-        idx[0] = 0;
+    const int s0 = A.start * n + B.start;
+    if (live(A.start, B.start)) {
+        std::deque<int> queue{s0};
+        idx[s0] = 0;
         while (!queue.empty()) {
             const int s = queue.front();
             queue.pop_front();
@@ -135,6 +136,7 @@ ProductChain build_product_chain(const Chain& A, const Chain& B, Mover first) {
             idx[c] = static_cast<int>(p.states.size());
             p.states.emplace_back(static_cast<int>(c / n), static_cast<int>(c % n));
         }
+    if (idx[static_cast<std::size_t>(s0)] >= 0) p.start = static_cast<std::size_t>(idx[static_cast<std::size_t>(s0)]);
     p.row.push_back(0);
     for (int k = 0; k < 3; ++k) p.out[k].assign(p.states.size(), 0);
     for (std::size_t i = 0; i < p.states.size(); ++i) {
@@ -224,7 +226,7 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
                         "for the writer's 128-bit residuals",
                         bits_full));
     const int d_max = static_cast<int>(std::floor((124 - bits_full) * 0.30102999566398));
-    const int want = 18 + static_cast<int>(std::ceil(std::log10(std::max(1.0, t(0)))));
+    const int want = 18 + static_cast<int>(std::ceil(std::log10(std::max(1.0, t(static_cast<int>(p.start))))));
     const int digits = std::min(d_max, std::max(19, want));
     out.part.digits = digits;
     out.part.rounds.resize(m);
@@ -242,7 +244,7 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
     }
     if (!ok) throw InternalError("residual certificate: no bound on the remaining rounds was found");
     for (std::size_t i = 0; i < m; ++i) out.part.rounds[i] = to_mpz(h[i]);
-    out.h0 = h[0];
+    out.h0 = h[p.start];
     // Values: solve, then refine against exact residuals.
     const i128 scale = pow10_i128(digits);
     const long double scale_ld = std::pow(10.0L, digits);
@@ -284,7 +286,7 @@ PartValues write_part(const Chain& A, const Chain& B, Mover first) {
                                                : out.part.p_tie;
         dst.resize(m);
         for (std::size_t i = 0; i < m; ++i) dst[i] = to_mpz(X[i]);
-        out.x0[c] = X[0];
+        out.x0[c] = X[p.start];
         res[c] = std::move(r);
     }
     if (vectors == 2) res[2].assign(m, 0);

@@ -57,6 +57,7 @@ __extension__ typedef unsigned __int128 uint128;
 struct ProductChain {
     uint128 full = 1;
     std::vector<std::pair<int, int>> states;
+    std::size_t start = 0;          // index of the start state (the two start squares)
     std::vector<std::int64_t> row;  // size states + 1
     std::vector<int> col;
     std::vector<uint128> w;

@@ -59,7 +59,7 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
         part.p_tie.size() != (ties ? m : 0))
         throw Fail{"a list of values does not have one value per state"};
     // Live states (the race can still end: one of the pieces can still
-    // finish, and the pieces move independently) reachable from (0, 0).
+    // finish, and the pieces move independently) reachable from the start.
     const std::vector<char> fin_a = can_finish(A), fin_b = can_finish(B);
     auto live = [&](int a, int b) { return fin_a[a] || fin_b[b]; };
     std::vector<std::int64_t> index(static_cast<std::size_t>(n) * n, -1);
@@ -73,9 +73,9 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
     }
     std::vector<char> seen(static_cast<std::size_t>(n) * n, 0);
     std::vector<std::pair<int, int>> todo;
-    if (live(0, 0)) {
-        todo.push_back({0, 0});
-        seen[0] = 1;
+    if (live(A.start, B.start)) {
+        todo.push_back({A.start, B.start});
+        seen[static_cast<std::size_t>(A.start) * n + B.start] = 1;
     }
     std::size_t reached = 0;
     while (!todo.empty()) {
@@ -147,16 +147,18 @@ void check_part(const ResidualPart& part, int rounds_digits, const Chain& A, con
         for (int c = 0; c < 5; ++c)
             if (abs(*r[c]) > worst[c]) worst[c] = abs(*r[c]);
     }
-    // The start (0, 0) is the first state in increasing order.
-    if (part.states[0] != std::pair<int, int>{0, 0}) throw Fail{"the start (0, 0) is not the first state"};
-    centre[0] = mpq_class(part.p_a_wins[0], scale);
-    centre[1] = mpq_class(part.p_b_wins[0], scale);
-    centre[2] = mpq_class(ties ? part.p_tie[0] : zero, scale);
+    // The start state: the two pieces' start squares (0, 0 without head starts).
+    const std::int64_t s0 = at(A.start, B.start);
+    if (s0 < 0) throw Fail{fmt::format("the start ({}, {}) is not among the states", A.start, B.start)};
+    const auto i0 = static_cast<std::size_t>(s0);
+    centre[0] = mpq_class(part.p_a_wins[i0], scale);
+    centre[1] = mpq_class(part.p_b_wins[i0], scale);
+    centre[2] = mpq_class(ties ? part.p_tie[i0] : zero, scale);
     for (int c = 0; c < 3; ++c) centre[c].canonicalize();
     centre[3] = 1 - centre[0] - centre[1] - centre[2];
     centre[4] = centre[0] - centre[1];
     for (int c = 0; c < 5; ++c) {
-        radius[c] = mpq_class(worst[c] * part.rounds[0], full * scale * hscale);
+        radius[c] = mpq_class(worst[c] * part.rounds[i0], full * scale * hscale);
         radius[c].canonicalize();
     }
 }

@@ -55,9 +55,10 @@ std::uint64_t chain_memory_estimate(const Board& board, const Option& option) {
     return entries * (4 + 8 + 16 + 32) + static_cast<std::uint64_t>(board.length) * 128;
 }
 
-Chain build_chain(const Board& board, const Option& option) {
+Chain build_chain(const Board& board, const Option& option, int start) {
     limits::check_memory(chain_memory_estimate(board, option), "the chain of this option on this board");
     Chain c;
+    c.start = resolve_start(board, start);
     const int n = board.length;
     c.length = n;
     c.denominator = option.denominator;

@@ -14,6 +14,9 @@ struct Chain {
     std::uint64_t denominator = 1;
     bool forward_only = false;
     int max_move = 0;
+    // Where the piece begins: 0, or a head start (after its jump, if any).
+    // Every engine starts this option's piece here.
+    int start = 0;
 
     // Row s lists the distinct destinations of one turn from square s (merged
     // weights), including s itself when the turn can end in place.
@@ -39,7 +42,8 @@ struct Chain {
 };
 
 // Builds the chain; throws LimitError when its size would exceed the memory cap.
-Chain build_chain(const Board& board, const Option& option);
+// `start` is the piece's start square as given (resolve_start validates it).
+Chain build_chain(const Board& board, const Option& option, int start = 0);
 
 // Bytes build_chain would allocate (an upper estimate), for refusing early.
 std::uint64_t chain_memory_estimate(const Board& board, const Option& option);

@@ -37,6 +37,7 @@ const Real* probabilities(const Chain& c) {
 
 template <class Real>
 BasicSeries<Real>::BasicSeries(const Chain& c, int start) : c_(&c), v_(c.length, 0), next_(c.length, 0) {
+    if (start < 0) start = c.start;
     lo_ = hi_ = start;
     if (c.stuck[start]) {
         stuck_ = 1;

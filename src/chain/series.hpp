@@ -15,7 +15,8 @@ class BasicSeries {
 public:
     // Mass that lands on a stuck square is set aside in stuck(): it can never
     // finish, and its square does not matter.
-    explicit BasicSeries(const Chain& chain, int start = 0);
+    // start < 0: the chain's own start square (0 or its head start).
+    explicit BasicSeries(const Chain& chain, int start = -1);
 
     // Advances one turn; returns P(T = t) for the new t.
     long double step();

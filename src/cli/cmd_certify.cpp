@@ -27,6 +27,7 @@ struct CertifyArgs {
 
 void run(const CertifyArgs& a) {
     BoardFlags flags = a.board;
+    flags.head_starts_allowed = true;
     if (a.kind == ClaimKind::crossover) {
         if (!a.at) throw InputError("certify crossover: give --at LENGTH (the preference differs at LENGTH-1 and LENGTH)");
         if (flags.length && *flags.length != *a.at)
@@ -42,7 +43,7 @@ void run(const CertifyArgs& a) {
     for (const auto& o : s.options) claim.options.push_back(o.name);
     Certificate cert;
     try {
-        cert = certify(claim, s.board, s.order, s.options, a.threads, a.residual);
+        cert = certify(claim, s.board, s.order, s.options, a.threads, a.residual, s.starts);
     } catch (const ClaimFailure& e) {
         std::fprintf(stderr, "overshoot: %s; no certificate written\n", e.what());
         exit_status() = 1;

@@ -22,21 +22,22 @@ struct DuelArgs {
     bool exact = false;
 };
 
-void run(const DuelArgs& a) {
+void run(DuelArgs a) {
+    a.board.head_starts_allowed = true;
     Setup s = resolve_setup(a.board, a.specs, 2, 2);
     DuelSettings ds;
     ds.method = parse_duel_method(a.method);
-    Chain ca = build_chain(s.board, s.options[0]);
-    Chain cb = build_chain(s.board, s.options[1]);
+    Chain ca = build_chain(s.board, s.options[0], s.starts[0]);
+    Chain cb = build_chain(s.board, s.options[1], s.starts[1]);
     DuelResult r = duel(ca, cb, s.order, ds);
     std::optional<ExactDuel> ex;
     if (a.exact) ex = exact_duel(ca, cb, s.order);  // refuses (exit 2) with the reason
     if (a.out.chosen() == "json") {
-        auto j = render::duel_json(s.board, s.order, s.options[0], s.options[1], r);
+        auto j = render::duel_json(s.board, s.order, s.options[0], s.options[1], r, s.starts);
         if (ex) j["exact"] = render::exact_duel_json(*ex);
         deliver(a.out, j.dump(2));
     } else {
-        std::string text = render::duel_text(s.board, s.order, s.options[0], s.options[1], r);
+        std::string text = render::duel_text(s.board, s.order, s.options[0], s.options[1], r, s.starts);
         if (ex) text += render::exact_duel_text(s.options[0], s.options[1], *ex);
         deliver(a.out, text);
     }

@@ -1,5 +1,5 @@
-// overshoot search SPEC...: board search. Changes to a board (added jumps, the
-// length within a range) that make the tournament of the options meet a
+// overshoot search SPEC...: board search. Changes to a board (added jumps, head
+// starts, the length within a range) that make the tournament of the options meet a
 // target: a named cycle, no Condorcet winner, everyone in the top cycle, or
 // duels as even as possible (docs/search.md).
 #include <fmt/format.h>
@@ -27,6 +27,7 @@ struct SearchArgs {
     std::optional<std::string> target;
     std::optional<std::string> cycle;
     int jumps = 1;
+    int head_starts = 0;
     std::optional<std::string> from, to, lengths;
     int keep = 5;
     unsigned long long seed = 1;
@@ -56,7 +57,9 @@ std::vector<int> parse_squares(const std::string& text, const char* what) {
 }
 
 void run(const SearchArgs& a) {
-    Setup s = resolve_setup(a.board, a.specs, 2, 64);
+    BoardFlags flags = a.board;
+    flags.head_starts_allowed = true;
+    Setup s = resolve_setup(flags, a.specs, 2, 64);
     SearchSpec spec;
     spec.board = s.board;
     spec.order = s.order;
@@ -66,6 +69,8 @@ void run(const SearchArgs& a) {
     if (spec.target == SearchTarget::cycle && !a.cycle)
         throw InputError("--target cycle needs the cycle: --cycle 'A > B > C > A'");
     spec.max_jumps = a.jumps;
+    spec.starts = s.starts;
+    spec.head_start_max = a.head_starts;
     if (a.from) spec.from_squares = parse_squares(*a.from, "--from");
     if (a.to) spec.to_squares = parse_squares(*a.to, "--to");
     if (a.lengths) std::tie(spec.length_lo, spec.length_hi) = parse_range(*a.lengths, "--lengths");
@@ -82,10 +87,11 @@ void run(const SearchArgs& a) {
     if (format == "json")
         text = render::search_json(r, spec).dump(2);
     else if (format == "scenario")
-        text = render::scenario_toml(r.best.front().board, spec.order, spec.options);
+        text = render::scenario_toml(r.best.front().board, spec.order, spec.options, r.best.front().starts);
     else if (format == "svg")
         text = render::svg::file(render::board_figure(r.best.front().board, r.best.front().added,
-                                                      fmt::format("Best board of the search ({})", to_string(spec.target))));
+                                                      fmt::format("Best board of the search ({})", to_string(spec.target)),
+                                                      render::start_marks(spec.options, r.best.front().starts)));
     else
         text = render::search_text(r, spec);
     deliver(a.out, text);
@@ -94,7 +100,7 @@ void run(const SearchArgs& a) {
 const Registration reg(34, [](CLI::App& app) {
     auto args = std::make_shared<SearchArgs>();
     auto* cmd = app.add_subcommand(
-        "search", "board search: added jumps or a length that make the options form a cycle, lose their winner, or even out");
+        "search", "board search: added jumps, head starts or a length that make the options form a cycle, lose their winner, or even out");
     set_usage(*cmd, "SPEC SPEC [SPEC...]", option_words_meaning);
     cmd->allow_extras();  // option words verbatim: CLI11 would split "[1,2,6]"
     add_board_flags(*cmd, args->board);
@@ -105,6 +111,11 @@ const Registration reg(34, [](CLI::App& app) {
     cmd->add_option("--cycle", args->cycle, "the wanted cycle, e.g. '1d6 > 3d6 > 2d6 > 1d6'");
     cmd->add_option("--jumps", args->jumps, "most jumps to add (default 1: every single jump, exhaustive; 2 to 8: beam search)")
         ->check(whole_in(0, 8));
+    cmd->add_option("--head-starts", args->head_starts,
+                    "also search head starts: any option may start on a square 0..H (default 0: every piece starts "
+                    "where the board says)")
+        ->type_name("H")
+        ->check(whole_in(0, limits::max_length));
     cmd->add_option("--from", args->from, "squares an added jump may start on, e.g. 10..40,55 (default: any)");
     cmd->add_option("--to", args->to, "squares an added jump may lead to (default: any)");
     cmd->add_option("--lengths", args->lengths, "also search the length within LO..HI (the board's jumps must fit)")

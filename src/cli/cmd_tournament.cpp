@@ -50,25 +50,30 @@ void run(const TournamentArgs& a) {
         // The file replaces the races: board flags and options would be ignored, so refuse them.
         if (!a.specs.empty()) throw InputError("--matrix takes the options from the file; drop the option specs");
         const BoardFlags& f = a.board;
-        if (f.length || f.overshoot || (f.jump_option && f.jump_option->count() > 0) || f.order || f.scenario)
-            throw InputError("--matrix replaces the races: --length, --overshoot, --jump, --order and --scenario do not apply");
+        if (f.length || f.overshoot || (f.jump_option && f.jump_option->count() > 0) || f.order || f.scenario ||
+            (f.head_start_option && f.head_start_option->count() > 0))
+            throw InputError("--matrix replaces the races: --length, --overshoot, --jump, --head-start, --order and --scenario do not apply");
         src.matrix_file = *a.matrix;
         src.tolerance = a.tolerance.value_or(0.0);
         matrix = read_matrix_csv(*a.matrix, src.tolerance);
     } else {
-        Setup s = resolve_setup(a.board, a.specs, 1, 100'000);
+        BoardFlags flags = a.board;
+        flags.head_starts_allowed = true;
+        Setup s = resolve_setup(flags, a.specs, 1, 100'000);
         DuelSettings ds;
         ds.method = parse_duel_method(a.method);
         ds.want_median = false;  // the tournament reports no race lengths; lets the engine share work across pairs
-        matrix = race_matrix(s.board, s.order, s.options, ds, a.threads);
+        matrix = race_matrix(s.board, s.order, s.options, ds, a.threads, s.starts);
         if (a.exact) {
             std::vector<Chain> chains;
-            for (const auto& o : s.options) chains.push_back(build_chain(s.board, o));
+            for (std::size_t i = 0; i < s.options.size(); ++i)
+                chains.push_back(build_chain(s.board, s.options[i], s.starts[i]));
             exact = render::exact_matrix_json(exact_matrix(chains, s.order, a.threads), chains.size());
         }
         src.board = s.board;
         src.order = s.order;
         src.options = s.options;
+        src.starts = s.starts;
     }
     Tournament t = analyse(std::move(matrix), settings);
 

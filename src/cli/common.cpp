@@ -28,6 +28,12 @@ void add_board_flags(CLI::App& cmd, BoardFlags& f, bool with_order) {
                         ->type_name("FROM:TO")
                         ->allow_extra_args(false)
                         ->delimiter(',');
+    f.head_start_option =
+        cmd.add_option("--head-start", f.head_starts,
+                       "a head start NAME:SQUARE: that option's piece begins on SQUARE (repeat the flag; replaces the "
+                       "scenario's [head_starts])")
+            ->type_name("NAME:SQUARE")
+            ->allow_extra_args(false);
     if (with_order)
         cmd.add_option("--order", f.order, "turn order: simultaneous, a-first, b-first or coin")
             ->type_name("ORDER")
@@ -43,6 +49,8 @@ Setup resolve_setup(const BoardFlags& f, const std::vector<std::string>& words, 
     r.length = f.length;
     r.overshoot = f.overshoot;
     if (f.jump_option && f.jump_option->count() > 0) r.jumps = f.jumps;
+    if (f.head_start_option && f.head_start_option->count() > 0) r.head_starts = f.head_starts;
+    r.head_starts_allowed = f.head_starts_allowed;
     r.order = f.order;
     r.scenario = f.scenario;
     r.words = words;

@@ -21,6 +21,9 @@ struct BoardFlags {
     std::optional<std::string> scenario;
     std::optional<long long> memory_mib;
     CLI::Option* jump_option = nullptr;
+    std::vector<std::string> head_starts;  // NAME:SQUARE each
+    CLI::Option* head_start_option = nullptr;
+    bool head_starts_allowed = false;  // set by the commands whose engines honour them
 };
 
 void add_board_flags(CLI::App& cmd, BoardFlags& flags, bool with_order = true);

@@ -55,6 +55,16 @@ Board make_board(int length, Overshoot rule, std::vector<Jump> jumps) {
     return b;
 }
 
+int resolve_start(const Board& board, int start) {
+    if (start < 0 || start >= board.length)
+        throw InputError(fmt::format("start square {}: must be in 0..{} on a board of length {}", start,
+                                     board.length - 1, board.length));
+    const int r = board.after_jumps[start];
+    if (r >= board.length)
+        throw InputError(fmt::format("start square {}: its jump leads straight to the finish", start));
+    return r;
+}
+
 std::string_view to_string(Overshoot rule) {
     switch (rule) {
         case Overshoot::stay: return "stay";

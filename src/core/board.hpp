@@ -33,6 +33,11 @@ struct Board {
 // `from`, 0..length as `to`, from != to, one jump per square, no loop.
 Board make_board(int length, Overshoot rule, std::vector<Jump> jumps);
 
+// Validates a start square for `board` (0..length-1, not a jump into the finish)
+// and returns where the piece actually rests: a start on a jump source takes
+// the jump at once. Throws InputError.
+int resolve_start(const Board& board, int start);
+
 std::string_view to_string(Overshoot rule);
 std::string_view to_string(Order order);
 Overshoot parse_overshoot(std::string_view text);  // throws InputError

@@ -60,7 +60,7 @@ Scenario parse_scenario(std::string_view text, const std::string& source) {
     }
     Scenario sc;
     sc.source = source;
-    only_keys(source, root, "the scenario", {"board", "race", "options"});
+    only_keys(source, root, "the scenario", {"board", "race", "options", "head_starts"});
     if (auto* n = root.get("board")) {
         const auto& b = as_table(source, *n, "board");
         only_keys(source, b, "[board]", {"length", "overshoot", "jumps"});
@@ -112,6 +112,18 @@ Scenario parse_scenario(std::string_view text, const std::string& source) {
             return a.first.line != b.first.line ? a.first.line < b.first.line : a.first.column < b.first.column;
         });
         for (auto& f : found) sc.options.push_back(std::move(f.second));
+    }
+    if (auto* n = root.get("head_starts")) {
+        const auto& h = as_table(source, *n, "head_starts");
+        std::vector<std::pair<toml::source_position, std::pair<std::string, int>>> found;
+        for (auto&& [k, v] : h) {
+            std::string key(k.str());
+            found.push_back({v.source().begin, {key, as_int(source, v, key, 0, limits::max_length)}});
+        }
+        std::sort(found.begin(), found.end(), [](const auto& a, const auto& b) {
+            return a.first.line != b.first.line ? a.first.line < b.first.line : a.first.column < b.first.column;
+        });
+        for (auto& f : found) sc.head_starts.push_back(std::move(f.second));
     }
     return sc;
 }

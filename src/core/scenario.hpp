@@ -22,6 +22,8 @@ struct Scenario {
     std::optional<std::vector<Jump>> jumps;
     std::optional<Order> order;
     std::vector<NamedSpec> options;  // in file order
+    // [head_starts]: option name -> start square, in file order.
+    std::vector<std::pair<std::string, int>> head_starts;
 };
 
 // Loads and validates the keys and value types (not the board: that is

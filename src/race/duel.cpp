@@ -93,7 +93,7 @@ void add_round(Tally& r, bool a_first, int t, long double fa, long double fb, lo
 
 Tally full_pairs(const Chain& a, const Chain& b, bool a_first) {
     PairTable pt = pair_programme(a, b, 0, 0, a_first);
-    const PairValue& v = pt.at(0, 0);
+    const PairValue& v = pt.at(a.start, b.start);
     Tally r;
     r.win = v.win;
     r.loss = v.loss;
@@ -206,7 +206,8 @@ Tally product_method(const Chain& A, const Chain& B, bool a_first) {
     Tally r;
     r.method.first = DuelMethod::product;
     r.proven = false;
-    if (count == 0 || idx[0] < 0) {
+    const int i0 = idx[static_cast<std::size_t>(A.start) * n + B.start];
+    if (count == 0 || i0 < 0) {
         r.neither = 1;
         return r;
     }
@@ -255,10 +256,10 @@ Tally product_method(const Chain& A, const Chain& B, bool a_first) {
     Eigen::VectorXd e = lu.solve(f);
     Eigen::VectorXd tau = lu.solve(Eigen::VectorXd::Ones(count));
     double resid = (m * x - rhs).lpNorm<Eigen::Infinity>();
-    r.win = x(idx[0], 0);
-    r.loss = x(idx[0], 1);
-    r.tie = x(idx[0], 2);
-    r.rounds = e(idx[0]);
+    r.win = x(i0, 0);
+    r.loss = x(i0, 1);
+    r.tie = x(i0, 2);
+    r.rounds = e(i0);
     r.neither = std::max(0.0L, 1.0L - r.win - r.loss - r.tie);
     // |error| <= (I - M)^{-1} |residual| <= residual * max expected rounds.
     r.bound = static_cast<long double>((resid + 1e-16) * std::max(1.0, tau.lpNorm<Eigen::Infinity>()) * 4);

@@ -20,7 +20,8 @@ std::array<mpq_class, 3> exact_elimination(const Chain& A, const Chain& B, bool 
             if (A.resting[a] && B.resting[b] && !(A.stuck[a] && B.stuck[b]))
                 idx[static_cast<std::size_t>(a) * n + b] = count++;
     std::array<mpq_class, 3> out{0, 0, 0};
-    if (idx[0] < 0) return out;
+    const int i0 = idx[static_cast<std::size_t>(A.start) * n + B.start];
+    if (i0 < 0) return out;
     const int cols = count + 3;
     std::vector<mpz_class> m(static_cast<std::size_t>(count) * cols);
     auto at = [&](int i, int j) -> mpz_class& { return m[static_cast<std::size_t>(i) * cols + j]; };
@@ -71,7 +72,7 @@ std::array<mpq_class, 3> exact_elimination(const Chain& A, const Chain& B, bool 
             s /= mpq_class(at(i, i));
             x[i][c] = s;
         }
-    for (int c = 0; c < 3; ++c) out[c] = x[idx[0]][c];
+    for (int c = 0; c < 3; ++c) out[c] = x[i0][c];
     return out;
 }
 

@@ -1,6 +1,6 @@
 #pragma once
 // The two exact methods behind exact_duel() (race/exact.hpp): win, loss and
-// tie of one ordered race from (0, 0), each a reduced fraction.
+// tie of one ordered race from the chains' start squares, each a reduced fraction.
 #include <gmpxx.h>
 
 #include <array>

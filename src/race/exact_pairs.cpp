@@ -53,7 +53,7 @@ public:
         choose_basis();
     }
 
-    // Win, loss and tie of the race from (0, 0), reduced.
+    // Win, loss and tie of the race from the two start squares, reduced.
     std::array<mpq_class, 3> run();
 
 private:
@@ -365,12 +365,16 @@ std::array<mpq_class, 3> ExactPairs::run() {
             }
         }
         for (int d : free_after[a]) pool.push_back(std::move(grow[d]));
+        // Rows below A's start square are never reached from the start.
+        if (a == A_.start) break;
     }
+    // F row of A's start square, at B's start square.
+    const std::size_t sb = static_cast<std::size_t>(B_.start);
     std::array<mpq_class, 3> out;
     mpz_class den = c_;
-    for (std::size_t j = 0; j < k; ++j) den *= power(j, frow.ex[j]);
+    for (std::size_t j = 0; j < k; ++j) den *= power(j, frow.ex[sb * k + j]);
     for (int c = 0; c < cm; ++c) {
-        out[c] = mpq_class(frow.num[c], den);
+        out[c] = mpq_class(frow.num[sb * cm + c], den);
         out[c].canonicalize();
     }
     if (cm == 2) out[2] = 0;

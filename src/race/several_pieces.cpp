@@ -23,16 +23,6 @@ std::string_view to_string(RaceOrder o) { return o == RaceOrder::seated ? "seate
 
 std::string_view to_string(RaceMethod m) { return m == RaceMethod::series_zone ? "series+zone" : "series"; }
 
-int resolve_start(const Board& board, int start) {
-    if (start < 0 || start >= board.length)
-        throw InputError(fmt::format("start square {}: must be in 0..{} on a board of length {}", start,
-                                     board.length - 1, board.length));
-    const int r = board.after_jumps[start];
-    if (r >= board.length)
-        throw InputError(fmt::format("start square {}: its jump leads straight to the finish", start));
-    return r;
-}
-
 namespace {
 
 // Adds one round's outcomes to `subset` (index = set of first finishers).

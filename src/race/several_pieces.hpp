@@ -60,10 +60,6 @@ struct RaceResult {
 RaceResult race(const std::vector<const Chain*>& chains, const std::vector<int>& starts, RaceOrder order,
                 const RaceSettings& settings = {});
 
-// Validates a start square for `board` (0..length-1, not a jump into the finish)
-// and returns where the piece actually rests. Throws InputError.
-int resolve_start(const Board& board, int start);
-
 // The recorded series of one piece: f[t] = P(T = t+1), alive[t] / stuck[t] the
 // mass after t+1 turns. Recorded until the live mass is below `threshold` or
 // the turn cap; used to combine many races of the same pieces cheaply.

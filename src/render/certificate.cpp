@@ -95,6 +95,11 @@ nlohmann::json certificate_json(const Certificate& c) {
     for (const Jump& jp : c.board.jumps) jumps.push_back({jp.from, jp.to});
     j["board"] = {{"length", c.board.length}, {"overshoot", std::string(to_string(c.board.rule))},
                   {"jumps", jumps}, {"order", std::string(to_string(c.order))}};
+    if (any_head_start(c.starts)) {
+        std::vector<std::string> names;
+        for (const Option& o : c.options) names.push_back(o.name);
+        j["board"]["head_starts"] = head_starts_json(names, c.starts);
+    }
     nlohmann::json opts = nlohmann::json::array();
     for (const Option& o : c.options) {
         nlohmann::json moves = nlohmann::json::array();

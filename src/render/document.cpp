@@ -36,6 +36,26 @@ std::string describe_board(const Board& b) {
     return fmt::format("board of {} squares, overshoot {}, {}", b.length, to_string(b.rule), jumps_text(b.jumps));
 }
 
+bool any_head_start(const std::vector<int>& starts) {
+    for (int s : starts)
+        if (s != 0) return true;
+    return false;
+}
+
+nlohmann::json head_starts_json(const std::vector<std::string>& names, const std::vector<int>& starts) {
+    nlohmann::json j = nlohmann::json::object();
+    for (std::size_t i = 0; i < names.size() && i < starts.size(); ++i)
+        if (starts[i] != 0) j[names[i]] = starts[i];
+    return j;
+}
+
+std::string head_starts_text(const std::vector<std::string>& names, const std::vector<int>& starts) {
+    std::string out;
+    for (std::size_t i = 0; i < names.size() && i < starts.size(); ++i)
+        if (starts[i] != 0) out += fmt::format("{}{} on {}", out.empty() ? "head starts: " : ", ", names[i], starts[i]);
+    return out;
+}
+
 nlohmann::json number_or_null(double x) { return std::isfinite(x) ? nlohmann::json(x) : nlohmann::json(nullptr); }
 nlohmann::json number_or_null(const std::optional<long long>& v) { return v ? nlohmann::json(*v) : nlohmann::json(nullptr); }
 

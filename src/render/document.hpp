@@ -24,6 +24,12 @@ std::string describe(const Board& board, Order order);
 std::string describe_board(const Board& board);
 std::string jumps_text(const std::vector<Jump>& jumps);
 
+// Head starts (one start square per name; 0: none): {"name": square} of the
+// nonzero ones, and the same in words ("head starts: bold on 4"; empty when none).
+nlohmann::json head_starts_json(const std::vector<std::string>& names, const std::vector<int>& starts);
+std::string head_starts_text(const std::vector<std::string>& names, const std::vector<int>& starts);
+bool any_head_start(const std::vector<int>& starts);
+
 // A number, or null when it is not finite / not there.
 nlohmann::json number_or_null(double x);
 nlohmann::json number_or_null(const std::optional<long long>& v);

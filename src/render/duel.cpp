@@ -9,8 +9,11 @@
 
 namespace overshoot::render {
 
-std::string duel_text(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r) {
-    std::string out = describe(board, order) + "\n\n";
+std::string duel_text(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r,
+                      const std::vector<int>& starts) {
+    std::string out = describe(board, order) + "\n";
+    if (any_head_start(starts)) out += head_starts_text({a.name, b.name}, starts) + "\n";
+    out += "\n";
     std::vector<std::vector<std::string>> rows{
         {a.name + " wins", percent(static_cast<double>(r.p_a_wins))},
         {b.name + " wins", percent(static_cast<double>(r.p_b_wins))},
@@ -40,9 +43,11 @@ std::string duel_text(const Board& board, Order order, const Option& a, const Op
     return out;
 }
 
-nlohmann::json duel_json(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r) {
+nlohmann::json duel_json(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r,
+                         const std::vector<int>& starts) {
     nlohmann::json j = document("duel", 1);
     j["board"] = board_json(board, order);
+    if (any_head_start(starts)) j["board"]["head_starts"] = head_starts_json({a.name, b.name}, starts);
     j["a"] = {{"name", a.name}, {"spec", a.spec}};
     j["b"] = {{"name", b.name}, {"spec", b.spec}};
     j["p_a_wins"] = static_cast<double>(r.p_a_wins);

@@ -10,7 +10,10 @@
 
 namespace overshoot::render {
 
-std::string duel_text(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r);
-nlohmann::json duel_json(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r);
+// starts: the start squares of A and B (empty: both on 0).
+std::string duel_text(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r,
+                      const std::vector<int>& starts = {});
+nlohmann::json duel_json(const Board& board, Order order, const Option& a, const Option& b, const DuelResult& r,
+                         const std::vector<int>& starts = {});
 
 }  // namespace overshoot::render

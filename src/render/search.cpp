@@ -4,6 +4,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <map>
 
 #include "render/figures.hpp"
 #include "render/document.hpp"
@@ -54,6 +55,23 @@ std::string shell_word(const std::string& w) {
     return q + "'";
 }
 
+std::vector<std::string> names_of(const std::vector<Option>& options) {
+    std::vector<std::string> v;
+    for (const auto& o : options) v.push_back(o.name);
+    return v;
+}
+
+// What the search changed: "jumps 97:20; head starts 2d6 on 4".
+std::string change_list(const FoundBoard& f, const SearchSpec& spec) {
+    std::string s = "jumps " + jump_list(f.added);
+    const std::vector<int> base = spec.starts.empty() ? std::vector<int>(spec.options.size(), 0) : spec.starts;
+    std::string moved;
+    for (std::size_t i = 0; i < f.starts.size(); ++i)
+        if (f.starts[i] != base[i]) moved += fmt::format("{}{} on {}", moved.empty() ? "" : ", ", spec.options[i].name, f.starts[i]);
+    if (!moved.empty()) s += "; head starts " + moved;
+    return s;
+}
+
 std::string arcs_line(const FoundBoard& f, const SearchSpec& spec) {
     const Tournament& t = f.verified;
     const std::size_t n = t.size();
@@ -88,6 +106,7 @@ std::string verdict(const FoundBoard& f, const SearchSpec& spec) {
 nlohmann::json found_json(const FoundBoard& f, const SearchSpec& spec) {
     nlohmann::json j;
     j["board"] = board_json(f.board, spec.order);
+    if (any_head_start(f.starts)) j["board"]["head_starts"] = head_starts_json(names_of(spec.options), f.starts);
     nlohmann::json added = nlohmann::json::array();
     for (const auto& a : f.added) added.push_back({a.from, a.to});
     j["added_jumps"] = added;
@@ -105,7 +124,7 @@ nlohmann::json found_json(const FoundBoard& f, const SearchSpec& spec) {
     nlohmann::json top = nlohmann::json::array();
     for (std::size_t i : f.verified.top_cycle) top.push_back(f.verified.name(i));
     j["top_cycle"] = top;
-    j["flags"] = board_flags(f.board, spec.order);
+    j["flags"] = board_flags(f.board, spec.order) + head_start_flags(spec.options, f.starts, false);
     return j;
 }
 
@@ -119,7 +138,23 @@ std::string board_flags(const Board& board, Order order) {
     return s;
 }
 
-std::string scenario_toml(const Board& board, Order order, const std::vector<Option>& options) {
+std::string head_start_flags(const std::vector<Option>& options, const std::vector<int>& starts, bool by_spec) {
+    std::string s;
+    for (std::size_t i = 0; i < options.size() && i < starts.size(); ++i)
+        if (starts[i] != 0)
+            s += " --head-start " + shell_word(fmt::format("{}:{}", by_spec ? options[i].spec : options[i].name, starts[i]));
+    return s;
+}
+
+std::vector<std::pair<std::string, int>> start_marks(const std::vector<Option>& options, const std::vector<int>& starts) {
+    std::vector<std::pair<std::string, int>> out;
+    for (std::size_t i = 0; i < options.size() && i < starts.size(); ++i)
+        if (starts[i] != 0) out.emplace_back(options[i].name, starts[i]);
+    return out;
+}
+
+std::string scenario_toml(const Board& board, Order order, const std::vector<Option>& options,
+                          const std::vector<int>& starts) {
     auto quoted = [](const std::string& s) {
         std::string q = "\"";
         for (char c : s) {
@@ -137,6 +172,11 @@ std::string scenario_toml(const Board& board, Order order, const std::vector<Opt
     s += "]\n\n[race]\n";
     s += fmt::format("order = \"{}\"\n\n[options]\n", to_string(order));
     for (const auto& o : options) s += fmt::format("{} = {}\n", quoted(o.name), quoted(o.spec));
+    if (any_head_start(starts)) {
+        s += "\n[head_starts]\n";
+        for (std::size_t i = 0; i < options.size() && i < starts.size(); ++i)
+            if (starts[i] != 0) s += fmt::format("{} = {}\n", quoted(options[i].name), starts[i]);
+    }
     return s;
 }
 
@@ -144,18 +184,29 @@ std::string search_text(const SearchResult& r, const SearchSpec& spec) {
     std::string out = fmt::format("Board search. Target: {}.\n", target_sentence(spec));
     out += fmt::format("Board changed: {} squares, overshoot {}, {} turns, jumps {}", spec.board.length,
                        to_string(spec.board.rule), to_string(spec.order), jump_list(spec.board.jumps));
+    if (any_head_start(spec.starts)) out += "; " + head_starts_text(names_of(spec.options), spec.starts);
+    if (spec.head_start_max > 0) out += fmt::format("; head starts on squares 0..{} searched", spec.head_start_max);
     if (r.lengths.size() > 1) out += fmt::format("; lengths {}..{} searched", r.lengths.front(), r.lengths.back());
     out += ".\n";
-    if (r.exhaustive)
-        out += fmt::format("Searched: {} (exhaustive): {} boards raced, {} refused (a loop of jumps).\n",
-                           spec.max_jumps == 0 ? "no added jump" : "every single added jump", r.boards_raced,
-                           r.boards_invalid);
+    const bool heads = spec.head_start_max > 0;
+    if (r.start_grid)
+        out += fmt::format("Searched: every assignment of a start square 0..{} to every option (exhaustive): {} boards "
+                           "raced, {} refused (a start whose jump leads to the finish).\n",
+                           spec.head_start_max, r.boards_raced, r.boards_invalid);
+    else if (r.exhaustive)
+        out += fmt::format("Searched: {} (exhaustive): {} boards raced, {} refused ({}).\n",
+                           spec.max_jumps == 0 && !heads ? "no change"
+                           : heads                      ? "every single head start"
+                                                        : "every single added jump",
+                           r.boards_raced, r.boards_invalid, heads ? "a start whose jump leads to the finish" : "a loop of jumps");
     else
         out += fmt::format(
-            "Searched: up to {} added jumps by a seeded beam search (seed {}, beam {}, {} jumps tried per board and "
-            "level, then local moves): {} boards raced, {} refused. This is a search, not a proof that no better "
-            "board exists; single added jumps were tried exhaustively.\n",
-            spec.max_jumps, spec.seed, spec.beam, spec.sample, r.boards_raced, r.boards_invalid);
+            "Searched: up to {} added jumps{} by a seeded beam search (seed {}, beam {}, {} changes tried per board "
+            "and level, then local moves): {} boards raced, {} refused. This is a search, not a proof that no "
+            "better board exists; every single change ({}) was tried exhaustively.\n",
+            spec.max_jumps, heads ? fmt::format(" and head starts 0..{}", spec.head_start_max) : std::string(),
+            spec.seed, spec.beam, spec.sample, r.boards_raced, r.boards_invalid,
+            heads ? "one added jump or one head start" : "one added jump");
     if (!spec.from_squares.empty() || !spec.to_squares.empty())
         out += fmt::format("Allowed squares: jumps from {} to {}.\n",
                            spec.from_squares.empty() ? std::string("any") : fmt::format("{}", fmt::join(spec.from_squares, ",")),
@@ -169,23 +220,23 @@ std::string search_text(const SearchResult& r, const SearchSpec& spec) {
     out += "Best boards, then runners-up:\n";
     for (std::size_t i = 0; i < r.best.size(); ++i) {
         const FoundBoard& f = r.best[i];
-        out += fmt::format("{:2}. added {}: score {}{} (largest error bound {:.1e}{})\n", i + 1, jump_list(f.added),
+        out += fmt::format("{:2}. {}: score {}{} (largest error bound {:.1e}{})\n", i + 1, change_list(f, spec),
                            points(f.score), verdict(f, spec).empty() ? "" : "; the target " + verdict(f, spec),
                            largest_bound(f.verified), f.verified.matrix.bounds_proven ? "" : ", not proven");
         out += fmt::format("    {}\n", arcs_line(f, spec));
-        out += fmt::format("    board: {}\n", board_flags(f.board, spec.order));
+        out += fmt::format("    board: {}{}\n", board_flags(f.board, spec.order), head_start_flags(spec.options, f.starts, false));
     }
     if (!r.best.empty()) {
         std::string names;
         for (const auto& o : spec.options) names += " " + shell_word(o.spec);
         const FoundBoard& f = r.best.front();
-        out += fmt::format("\nCheck the best board:  overshoot tournament{} {}\n", names, board_flags(f.board, spec.order));
+        const std::string flags = board_flags(f.board, spec.order) + head_start_flags(spec.options, f.starts, true);
+        out += fmt::format("\nCheck the best board:  overshoot tournament{} {}\n", names, flags);
         if (spec.target == SearchTarget::cycle && f.holds) {
             // certify cycle reads the cycle from the order of its options.
             std::string in_order;
             for (std::size_t i : spec.cycle) in_order += " " + shell_word(spec.options[i].spec);
-            out += fmt::format("Certify its cycle:     overshoot certify cycle{} {} -o cycle.json\n", in_order,
-                               board_flags(f.board, spec.order));
+            out += fmt::format("Certify its cycle:     overshoot certify cycle{} {} -o cycle.json\n", in_order, flags);
         }
     }
     return out;
@@ -203,9 +254,12 @@ nlohmann::json search_json(const SearchResult& r, const SearchSpec& spec) {
     for (const auto& o : spec.options) opts.push_back({{"name", o.name}, {"spec", o.spec}});
     j["options"] = opts;
     j["board"] = board_json(spec.board, spec.order);
+    if (any_head_start(spec.starts)) j["board"]["head_starts"] = head_starts_json(names_of(spec.options), spec.starts);
     j["lengths"] = r.lengths;
     j["max_added_jumps"] = spec.max_jumps;
+    j["max_head_start"] = spec.head_start_max;
     j["exhaustive"] = r.exhaustive;
+    j["start_grid"] = r.start_grid;
     if (!r.exhaustive) j["beam_search"] = {{"seed", spec.seed}, {"beam", spec.beam}, {"sample", spec.sample}};
     j["from_squares"] = spec.from_squares;
     j["to_squares"] = spec.to_squares;
@@ -218,7 +272,8 @@ nlohmann::json search_json(const SearchResult& r, const SearchSpec& spec) {
     return j;
 }
 
-svg::Element board_figure(const Board& board, const std::vector<Jump>& added, const std::string& title) {
+svg::Element board_figure(const Board& board, const std::vector<Jump>& added, const std::string& title,
+                          const std::vector<std::pair<std::string, int>>& marks) {
     const int per_row = 10;
     const double cell = 36, margin = 24;
     const int rows = board.length / per_row + 1;  // squares 0..length
@@ -258,6 +313,16 @@ svg::Element board_figure(const Board& board, const std::vector<Jump>& added, co
         p.add(svg::Element("title").content(fmt::format("jump {} -> {}{}", j.from, j.to, bold ? " (added)" : "")));
         root.add(p);
         root.add(svg::circle(x2, y2, 4, colour));
+    }
+    // Head starts: the option's name on its start square, one line per piece there.
+    std::map<int, int> on_square;
+    for (const auto& [name, square] : marks) {
+        auto [x, y] = centre(square);
+        const int k = on_square[square]++;
+        svg::Element t = svg::text(x, y + 4 + 9 * k, name, 8, "middle");
+        t.set("fill", ink);
+        t.add(svg::Element("title").content(fmt::format("{} starts on square {}", name, square)));
+        root.add(t);
     }
     svg::Element legend = svg::text(margin, h - 12,
                                      "jumps: forward and backward in two colours; bold = added by the search, "

@@ -16,9 +16,14 @@ constexpr std::size_t shown_cycles = 20;  // text, Markdown: the rest is in --js
 
 std::string heading(const Tournament& t, const TournamentSource& src) {
     std::string out;
-    if (src.board)
+    if (src.board) {
         out = describe(*src.board, src.order);
-    else
+        if (any_head_start(src.starts)) {
+            std::vector<std::string> names;
+            for (const Option& o : src.options) names.push_back(o.name);
+            out += "\n" + head_starts_text(names, src.starts);
+        }
+    } else
         out = fmt::format("win matrix from {}, error bound {} on every margin", src.matrix_file,
                           src.tolerance == 0 ? std::string("0") : fmt::format("{:g}", src.tolerance));
     out += fmt::format("\n{} option{}", t.size(), t.size() == 1 ? "" : "s");
@@ -255,6 +260,11 @@ nlohmann::json tournament_json(const Tournament& t, const TournamentSource& src)
     nlohmann::json j = document("tournament", 1);
     if (src.board) {
         j["board"] = board_json(*src.board, src.order);
+        if (any_head_start(src.starts)) {
+            std::vector<std::string> names;
+            for (const Option& o : src.options) names.push_back(o.name);
+            j["board"]["head_starts"] = head_starts_json(names, src.starts);
+        }
         nlohmann::json specs = nlohmann::json::array();
         for (const Option& o : src.options) specs.push_back({{"name", o.name}, {"spec", o.spec}});
         j["option_specs"] = specs;

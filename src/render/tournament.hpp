@@ -18,6 +18,7 @@ struct TournamentSource {
     std::optional<Board> board;
     Order order = Order::simultaneous;
     std::vector<Option> options;  // with a board: the options raced
+    std::vector<int> starts;      // with a board: one start square per option (empty: all on 0)
     std::string matrix_file;      // with --matrix
     double tolerance = 0;         // with --matrix
 };

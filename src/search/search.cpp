@@ -15,137 +15,6 @@
 
 namespace overshoot {
 
-std::string_view to_string(SearchTarget t) {
-    switch (t) {
-        case SearchTarget::cycle: return "cycle";
-        case SearchTarget::no_winner: return "no-winner";
-        case SearchTarget::top_cycle: return "top-cycle";
-        case SearchTarget::fair: return "fair";
-    }
-    return "?";
-}
-
-SearchTarget parse_search_target(std::string_view t) {
-    if (t == "cycle") return SearchTarget::cycle;
-    if (t == "no-winner") return SearchTarget::no_winner;
-    if (t == "top-cycle") return SearchTarget::top_cycle;
-    if (t == "fair") return SearchTarget::fair;
-    throw InputError(fmt::format("target '{}': expected cycle, no-winner, top-cycle or fair", t));
-}
-
-std::vector<std::size_t> parse_cycle(std::string_view text, const std::vector<Option>& options) {
-    std::vector<std::string> names;
-    std::size_t at = 0;
-    while (true) {
-        const std::size_t gt = text.find('>', at);
-        std::string_view part = text.substr(at, gt == std::string_view::npos ? std::string_view::npos : gt - at);
-        while (!part.empty() && part.front() == ' ') part.remove_prefix(1);
-        while (!part.empty() && part.back() == ' ') part.remove_suffix(1);
-        if (part.empty()) throw InputError(fmt::format("cycle '{}': an empty name; write it as 'A > B > C > A'", text));
-        names.emplace_back(part);
-        if (gt == std::string_view::npos) break;
-        at = gt + 1;
-    }
-    if (names.size() > 1 && names.back() == names.front()) names.pop_back();
-    if (names.size() < 3)
-        throw InputError(fmt::format("cycle '{}': a cycle needs at least 3 options (A > B > C > A)", text));
-    std::vector<std::size_t> cycle;
-    for (const auto& name : names) {
-        std::size_t i = 0;
-        while (i < options.size() && options[i].name != name) ++i;
-        if (i == options.size()) throw InputError(fmt::format("cycle '{}': no option is named '{}'", text, name));
-        if (std::find(cycle.begin(), cycle.end(), i) != cycle.end())
-            throw InputError(fmt::format("cycle '{}': '{}' appears twice", text, name));
-        cycle.push_back(i);
-    }
-    return cycle;
-}
-
-namespace {
-
-// True when every vertex reaches every other along arcs with margin >= t.
-bool strongly_connected_at(std::size_t n, const std::vector<double>& margin, double t) {
-    for (int dir = 0; dir < 2; ++dir) {
-        std::vector<char> seen(n, 0);
-        std::vector<std::size_t> stack{0};
-        seen[0] = 1;
-        std::size_t count = 1;
-        while (!stack.empty()) {
-            const std::size_t v = stack.back();
-            stack.pop_back();
-            for (std::size_t w = 0; w < n; ++w) {
-                if (w == v || seen[w]) continue;
-                const double m = dir == 0 ? margin[v * n + w] : margin[w * n + v];
-                if (m >= t) {
-                    seen[w] = 1;
-                    ++count;
-                    stack.push_back(w);
-                }
-            }
-        }
-        if (count < n) return false;
-    }
-    return true;
-}
-
-}  // namespace
-
-double score_of(SearchTarget target, const std::vector<std::size_t>& cycle, std::size_t n,
-                const std::vector<double>& margin) {
-    switch (target) {
-        case SearchTarget::cycle: {
-            double s = std::numeric_limits<double>::infinity();
-            for (std::size_t k = 0; k < cycle.size(); ++k)
-                s = std::min(s, margin[cycle[k] * n + cycle[(k + 1) % cycle.size()]]);
-            return s;
-        }
-        case SearchTarget::no_winner: {
-            double s = std::numeric_limits<double>::infinity();
-            for (std::size_t i = 0; i < n; ++i) {
-                double beaten = -std::numeric_limits<double>::infinity();
-                for (std::size_t j = 0; j < n; ++j)
-                    if (j != i) beaten = std::max(beaten, margin[j * n + i]);
-                s = std::min(s, beaten);
-            }
-            return s;
-        }
-        case SearchTarget::top_cycle: {
-            // The largest threshold keeping the digraph strongly connected: one of the margins.
-            std::vector<double> ts;
-            for (std::size_t i = 0; i < n; ++i)
-                for (std::size_t j = 0; j < n; ++j)
-                    if (i != j) ts.push_back(margin[i * n + j]);
-            std::sort(ts.begin(), ts.end(), std::greater<>());
-            ts.erase(std::unique(ts.begin(), ts.end()), ts.end());
-            for (double t : ts)
-                if (strongly_connected_at(n, margin, t)) return t;
-            return ts.empty() ? 0 : ts.back();
-        }
-        case SearchTarget::fair: {
-            double worst = 0;
-            for (std::size_t i = 0; i < n; ++i)
-                for (std::size_t j = 0; j < n; ++j)
-                    if (i != j) worst = std::max(worst, std::fabs(margin[i * n + j]));
-            return -worst;
-        }
-    }
-    return 0;
-}
-
-bool target_holds(SearchTarget target, const std::vector<std::size_t>& cycle, const Tournament& t) {
-    const std::size_t n = t.size();
-    switch (target) {
-        case SearchTarget::cycle:
-            for (std::size_t k = 0; k < cycle.size(); ++k)
-                if (!t.beats[cycle[k] * n + cycle[(k + 1) % cycle.size()]]) return false;
-            return true;
-        case SearchTarget::no_winner: return !t.condorcet_winner.has_value();
-        case SearchTarget::top_cycle: return t.top_cycle.size() == n;
-        case SearchTarget::fair: return true;
-    }
-    return false;
-}
-
 namespace {
 
 // A deterministic generator (splitmix64): the same stream on every platform.
@@ -163,25 +32,59 @@ struct SplitMix {
 struct Candidate {
     int length = 0;
     std::vector<Jump> added;  // sorted by source
+    std::vector<int> starts;  // one start square per option, as given
+    int changes = 0;          // added jumps plus start squares moved off the board's own
     double score = -std::numeric_limits<double>::infinity();
     bool valid = true;
 };
 
 bool jump_less(const Jump& a, const Jump& b) { return std::pair(a.from, a.to) < std::pair(b.from, b.to); }
 
-// Best first; ties by fewer jumps, then length, then the jumps themselves.
+// Length, jumps and starts: the identity of a candidate board.
+bool same_board(const Candidate& a, const Candidate& b) {
+    return a.length == b.length && a.added == b.added && a.starts == b.starts;
+}
+bool board_less(const Candidate& a, const Candidate& b) {
+    if (a.length != b.length) return a.length < b.length;
+    if (a.added != b.added)
+        return std::lexicographical_compare(a.added.begin(), a.added.end(), b.added.begin(), b.added.end(), jump_less);
+    return a.starts < b.starts;
+}
+
+// Best first; ties by fewer changes, then length, then the jumps and starts themselves.
 bool better(const Candidate& x, const Candidate& y) {
     if (x.score != y.score) return x.score > y.score;
-    if (x.added.size() != y.added.size()) return x.added.size() < y.added.size();
-    if (x.length != y.length) return x.length < y.length;
-    return std::lexicographical_compare(x.added.begin(), x.added.end(), y.added.begin(), y.added.end(), jump_less);
+    if (x.changes != y.changes) return x.changes < y.changes;
+    return board_less(x, y);
 }
+
+void sort_unique(std::vector<Candidate>& cs) {
+    std::sort(cs.begin(), cs.end(), board_less);
+    cs.erase(std::unique(cs.begin(), cs.end(), same_board), cs.end());
+}
+
+// One change to a board: an added jump, or an option's start square.
+struct Change {
+    bool jump = true;
+    Jump j;
+    std::size_t option = 0;
+    int square = 0;
+};
 
 class Searcher {
 public:
-    explicit Searcher(const SearchSpec& s) : spec_(s) {}
+    explicit Searcher(const SearchSpec& s) : spec_(s) {
+        base_starts_ = s.starts.empty() ? std::vector<int>(s.options.size(), 0) : s.starts;
+    }
 
-    std::vector<Jump> base_jumps() const { return spec_.board.jumps; }
+    const std::vector<int>& base_starts() const { return base_starts_; }
+
+    Candidate base(int length) const {
+        Candidate c;
+        c.length = length;
+        c.starts = base_starts_;
+        return c;
+    }
 
     Board board_of(const Candidate& c) const {
         std::vector<Jump> js = spec_.board.jumps;
@@ -189,19 +92,26 @@ public:
         return make_board(c.length, spec_.board.rule, js);
     }
 
+    int count_changes(const Candidate& c) const {
+        int k = static_cast<int>(c.added.size());
+        for (std::size_t i = 0; i < c.starts.size(); ++i) k += c.starts[i] != base_starts_[i];
+        return k;
+    }
+
     // Scores every candidate (in parallel; each writes its own slot).
     void score(std::vector<Candidate>& cs) {
         parallel_for(cs.size(), spec_.threads, [&](std::size_t k) {
             Candidate& c = cs[k];
-            Board b;
+            c.changes = count_changes(c);
+            std::vector<ScreenTrack> tracks;
             try {
-                b = board_of(c);
-            } catch (const InputError&) {
+                const Board b = board_of(c);
+                for (std::size_t i = 0; i < spec_.options.size(); ++i)
+                    tracks.push_back(screen_track(build_chain(b, spec_.options[i], c.starts[i])));
+            } catch (const InputError&) {  // a loop of jumps, or a start whose jump leads to the finish
                 c.valid = false;
                 return;
             }
-            std::vector<ScreenTrack> tracks;
-            for (const auto& o : spec_.options) tracks.push_back(screen_track(build_chain(b, o)));
             const std::size_t n = spec_.options.size();
             std::vector<double> margin(n * n, 0.0);
             for (std::size_t i = 0; i < n; ++i)
@@ -245,26 +155,45 @@ public:
         return out;
     }
 
-    static Candidate with(const Candidate& c, Jump j) {
+    // Every change that may be made to a candidate: jumps while fewer than
+    // max_jumps are added, and start squares of options still on their own.
+    std::vector<Change> changes(const Candidate& c) const {
+        std::vector<Change> out;
+        if (static_cast<int>(c.added.size()) < spec_.max_jumps)
+            for (const Jump& j : additions(c)) out.push_back({true, j, 0, 0});
+        for (std::size_t i = 0; i < c.starts.size(); ++i) {
+            if (c.starts[i] != base_starts_[i]) continue;
+            for (int h = 0; h <= spec_.head_start_max && h < c.length; ++h)
+                if (h != base_starts_[i]) out.push_back({false, {}, i, h});
+        }
+        return out;
+    }
+
+    static Candidate with(const Candidate& c, const Change& ch) {
         Candidate x;
         x.length = c.length;
         x.added = c.added;
-        x.added.push_back(j);
-        std::sort(x.added.begin(), x.added.end(), jump_less);
+        x.starts = c.starts;
+        if (ch.jump) {
+            x.added.push_back(ch.j);
+            std::sort(x.added.begin(), x.added.end(), jump_less);
+        } else {
+            x.starts[ch.option] = ch.square;
+        }
         return x;
     }
 
-    // Keeps every scored candidate once (by length and jump set).
+    // Keeps every scored candidate once (by length, jumps and starts).
     void remember(const std::vector<Candidate>& cs) {
         for (const auto& c : cs)
-            if (c.valid) pool_.emplace(std::pair(c.length, key(c.added)), c);
+            if (c.valid) pool_.emplace(key(c), c);
     }
-    bool seen(const Candidate& c) const { return pool_.count(std::pair(c.length, key(c.added))) > 0; }
+    bool seen(const Candidate& c) const { return pool_.count(key(c)) > 0; }
 
-    std::vector<Candidate> best_of_pool(std::size_t count, std::size_t jumps) const {
+    std::vector<Candidate> best_of_pool(std::size_t count, int changes) const {
         std::vector<Candidate> all;
         for (const auto& [k, c] : pool_)
-            if (c.added.size() == jumps) all.push_back(c);
+            if (c.changes == changes) all.push_back(c);
         std::sort(all.begin(), all.end(), better);
         if (all.size() > count) all.resize(count);
         return all;
@@ -281,21 +210,25 @@ public:
     std::uint64_t invalid() const { return invalid_; }
 
 private:
-    static std::vector<int> key(const std::vector<Jump>& js) {
-        std::vector<int> k;
-        for (const auto& j : js) {
+    static std::vector<int> key(const Candidate& c) {
+        std::vector<int> k{c.length};
+        for (const auto& j : c.added) {
             k.push_back(j.from);
             k.push_back(j.to);
         }
+        k.push_back(-1);
+        k.insert(k.end(), c.starts.begin(), c.starts.end());
         return k;
     }
 
     const SearchSpec& spec_;
-    std::map<std::pair<int, std::vector<int>>, Candidate> pool_;
+    std::vector<int> base_starts_;
+    std::map<std::vector<int>, Candidate> pool_;
     std::uint64_t raced_ = 0, invalid_ = 0;
 };
 
-// Moves of one added jump by a few squares at either end: the local step of the beam search.
+// Moves of one added jump by a few squares at either end, and of one head
+// start by a few squares: the local step of the beam search.
 std::vector<Candidate> neighbours(const Candidate& c, const Searcher& s, const SearchSpec& spec) {
     std::vector<Candidate> out;
     std::set<int> allowed_from(spec.from_squares.begin(), spec.from_squares.end());
@@ -318,8 +251,22 @@ std::vector<Candidate> neighbours(const Candidate& c, const Searcher& s, const S
                 std::sort(x.added.begin(), x.added.end(), jump_less);
                 if (!s.seen(x)) out.push_back(std::move(x));
             }
+    for (std::size_t i = 0; i < c.starts.size(); ++i) {
+        if (c.starts[i] == s.base_starts()[i]) continue;
+        for (int d : {-3, -2, -1, 1, 2, 3}) {
+            Candidate x = c;
+            x.starts[i] += d;
+            if (x.starts[i] < 0 || x.starts[i] > spec.head_start_max || x.starts[i] >= c.length ||
+                x.starts[i] == s.base_starts()[i])
+                continue;
+            if (!s.seen(x)) out.push_back(std::move(x));
+        }
+    }
     return out;
 }
+
+// Head starts alone are searched as a grid when it has at most this many boards.
+constexpr double kStartGrid = 400'000;
 
 }  // namespace
 
@@ -340,9 +287,10 @@ SearchResult search_board(const SearchSpec& spec) {
     if (spec.keep < 1 || spec.keep > 100) throw InputError(fmt::format("--keep {}: expected 1 to 100", spec.keep));
     if (spec.beam < 1 || spec.beam > 1000) throw InputError(fmt::format("--beam {}: expected 1 to 1000", spec.beam));
     if (spec.sample < 1) throw InputError(fmt::format("--sample {}: expected at least 1", spec.sample));
+    if (!spec.starts.empty() && spec.starts.size() != n) throw InternalError("search: one start square per option");
+    if (spec.head_start_max < 0) throw InputError(fmt::format("--head-starts {}: expected 0 or more", spec.head_start_max));
     SearchResult out;
     out.target = spec.target;
-    out.exhaustive = spec.max_jumps <= 1;
     if (spec.length_lo == 0 && spec.length_hi == 0)
         out.lengths = {spec.board.length};
     else {
@@ -351,12 +299,23 @@ SearchResult search_board(const SearchSpec& spec) {
         for (int L = spec.length_lo; L <= spec.length_hi; ++L) out.lengths.push_back(L);
     }
     for (int L : out.lengths) {
+        Board b;
         try {
-            make_board(L, spec.board.rule, spec.board.jumps);
+            b = make_board(L, spec.board.rule, spec.board.jumps);
         } catch (const InputError& e) {
             throw InputError(fmt::format("length {}: the board's own jumps do not fit: {}", L, e.what()));
         }
+        for (std::size_t i = 0; i < spec.starts.size(); ++i) {
+            try {
+                resolve_start(b, spec.starts[i]);
+            } catch (const InputError& e) {
+                throw InputError(fmt::format("length {}: the head start of {}: {}", L, spec.options[i].name, e.what()));
+            }
+        }
     }
+    if (spec.head_start_max >= out.lengths.front())
+        throw InputError(fmt::format("--head-starts {}: a start square lies in 0..{} (the shortest length searched is {})",
+                                     spec.head_start_max, out.lengths.front() - 1, out.lengths.front()));
     for (int s : spec.from_squares)
         if (s < 1 || s >= out.lengths.back())
             throw InputError(fmt::format("--from {}: a jump starts on a square 1..{}", s, out.lengths.back() - 1));
@@ -365,67 +324,70 @@ SearchResult search_board(const SearchSpec& spec) {
             throw InputError(fmt::format("--to {}: a jump ends on a square 0..{}", s, out.lengths.back()));
 
     Searcher searcher(spec);
-    // Level 0 and 1: the unchanged boards and every single added jump (exhaustive).
+    const int heads = spec.head_start_max > 0 ? static_cast<int>(n) : 0;  // options that may be given a start
+    const int max_changes = spec.max_jumps + heads;
+    const double grid = static_cast<double>(out.lengths.size()) * std::pow(spec.head_start_max + 1.0, static_cast<double>(n));
+    out.start_grid = spec.head_start_max > 0 && spec.max_jumps == 0 && grid <= kStartGrid;
+    out.exhaustive = max_changes <= 1 || out.start_grid;
+    // Level 0 and 1: the unchanged boards and every single change (exhaustive);
+    // or, for head starts alone on a small grid, every assignment of starts.
     std::vector<Candidate> level;
-    for (int L : out.lengths) {
-        Candidate base;
-        base.length = L;
-        level.push_back(base);
-    }
-    if (spec.max_jumps >= 1) {
+    for (int L : out.lengths) level.push_back(searcher.base(L));
+    if (out.start_grid) {
+        const std::size_t bases = level.size();
+        for (std::size_t b = 0; b < bases; ++b) {
+            std::vector<int> st(n, 0);
+            while (true) {
+                Candidate x = level[b];
+                x.starts = st;
+                if (x.starts != searcher.base_starts()) level.push_back(x);
+                std::size_t i = 0;
+                while (i < n && ++st[i] > spec.head_start_max) st[i++] = 0;
+                if (i == n) break;
+            }
+        }
+    } else if (max_changes >= 1) {
         const std::size_t bases = level.size();
         for (std::size_t b = 0; b < bases; ++b)
-            for (const Jump& j : searcher.additions(level[b])) level.push_back(Searcher::with(level[b], j));
+            for (const Change& ch : searcher.changes(level[b])) level.push_back(Searcher::with(level[b], ch));
     }
     searcher.score(level);
     searcher.remember(level);
-    // Levels 2..K: a beam. From each of the best boards with k-1 added jumps,
-    // a seeded sample of further jumps; then each kept board's jumps moved a
-    // few squares at a time while that improves it.
-    for (int k = 2; k <= spec.max_jumps; ++k) {
-        const auto beam = searcher.best_of_pool(static_cast<std::size_t>(spec.beam), static_cast<std::size_t>(k - 1));
+    // Levels 2..K: a beam. From each of the best boards with k-1 changes, a
+    // seeded sample of further changes; then each kept board's jumps and head
+    // starts moved a few squares at a time while that improves it.
+    for (int k = 2; !out.start_grid && k <= max_changes; ++k) {
+        const auto beam = searcher.best_of_pool(static_cast<std::size_t>(spec.beam), k - 1);
         std::vector<Candidate> next;
         for (std::size_t b = 0; b < beam.size(); ++b) {
-            std::vector<Jump> adds = searcher.additions(beam[b]);
+            std::vector<Change> adds = searcher.changes(beam[b]);
+            if (adds.empty()) continue;
             SplitMix rng{spec.seed * 0x100000001B3ULL + static_cast<std::uint64_t>(k) * 1000003ULL + b};
             const std::size_t take = std::min(adds.size(), static_cast<std::size_t>(spec.sample));
             for (std::size_t i = 0; i < take; ++i) std::swap(adds[i], adds[i + rng.below(adds.size() - i)]);
             adds.resize(take);
-            for (const Jump& j : adds) {
-                Candidate x = Searcher::with(beam[b], j);
+            for (const Change& ch : adds) {
+                Candidate x = Searcher::with(beam[b], ch);
                 if (!searcher.seen(x)) next.push_back(std::move(x));
             }
         }
         // The same board reached from two beam boards is raced once.
-        std::sort(next.begin(), next.end(), [](const Candidate& a, const Candidate& b) {
-            if (a.length != b.length) return a.length < b.length;
-            return std::lexicographical_compare(a.added.begin(), a.added.end(), b.added.begin(), b.added.end(), jump_less);
-        });
-        next.erase(std::unique(next.begin(), next.end(),
-                               [](const Candidate& a, const Candidate& b) { return a.length == b.length && a.added == b.added; }),
-                   next.end());
+        sort_unique(next);
         searcher.score(next);
         searcher.remember(next);
         // Local moves until no kept board improves (at most 30 rounds).
         for (int round = 0; round < 30; ++round) {
-            const auto kept = searcher.best_of_pool(static_cast<std::size_t>(spec.beam), static_cast<std::size_t>(k));
+            const auto kept = searcher.best_of_pool(static_cast<std::size_t>(spec.beam), k);
             std::vector<Candidate> moves;
             for (const auto& c : kept)
                 for (auto& x : neighbours(c, searcher, spec)) moves.push_back(std::move(x));
-            std::sort(moves.begin(), moves.end(), [](const Candidate& a, const Candidate& b) {
-                if (a.length != b.length) return a.length < b.length;
-                return std::lexicographical_compare(a.added.begin(), a.added.end(), b.added.begin(), b.added.end(), jump_less);
-            });
-            moves.erase(std::unique(moves.begin(), moves.end(),
-                                    [](const Candidate& a, const Candidate& b) { return a.length == b.length && a.added == b.added; }),
-                        moves.end());
+            sort_unique(moves);
             if (moves.empty()) break;
             searcher.score(moves);
             searcher.remember(moves);
-            const auto after = searcher.best_of_pool(static_cast<std::size_t>(spec.beam), static_cast<std::size_t>(k));
+            const auto after = searcher.best_of_pool(static_cast<std::size_t>(spec.beam), k);
             bool changed = after.size() != kept.size();
-            for (std::size_t i = 0; !changed && i < after.size(); ++i)
-                changed = after[i].added != kept[i].added || after[i].length != kept[i].length;
+            for (std::size_t i = 0; !changed && i < after.size(); ++i) changed = !same_board(after[i], kept[i]);
             if (!changed) break;
         }
     }
@@ -439,16 +401,13 @@ SearchResult search_board(const SearchSpec& spec) {
         FoundBoard f;
         f.board = searcher.board_of(c);
         f.added = c.added;
-        f.verified = analyse(race_matrix(f.board, spec.order, spec.options, full, spec.threads));
+        f.starts = c.starts;
+        f.verified = analyse(race_matrix(f.board, spec.order, spec.options, full, spec.threads, c.starts));
         f.score = score_of(spec.target, spec.cycle, n, f.verified.margin);
         f.holds = target_holds(spec.target, spec.cycle, f.verified);
         return f;
     };
-    {
-        Candidate base;
-        base.length = out.lengths.front();
-        out.base = verify(base);
-    }
+    out.base = verify(searcher.base(out.lengths.front()));
     // A few more than asked are raced again, so that boards whose screening
     // scores were within the screening's error of each other end up in the
     // order of their verified scores.

@@ -1,13 +1,16 @@
 #pragma once
-// Board search: changes to a board (added jumps, the length within a range)
-// that make a tournament of the given options meet a target:
+// Board search: changes to a board (added jumps, head starts, the length
+// within a range) that make a tournament of the given options meet a target:
 //   cycle      a named cycle A > B > C > A holds, as strong as possible;
 //   no-winner  no option beats every other (no Condorcet winner);
 //   top-cycle  every option is in the top cycle (Smith set);
 //   fair       the largest |margin| over all pairs is as small as possible.
-// One added jump is searched exhaustively; several by a seeded beam search
-// (docs/search.md) that is deterministic for a seed and is a search, not a
-// proof of optimality. Every reported board is raced again by the duel engine
+// A change is one added jump or one option's start square moved off the
+// board's own (a head start on a square 1..H). Every board with at most one
+// change is raced (exhaustive); head starts alone (no added jump) are searched
+// over every assignment of 0..H to every option when that grid is small;
+// anything more by a seeded beam search (docs/search.md) that is
+// deterministic for a seed and is a search, not a proof of optimality. Every reported board is raced again by the duel engine
 // (automatic method, proven bounds) and analysed as `tournament` would.
 #include <cstddef>
 #include <cstdint>
@@ -18,18 +21,10 @@
 #include "core/board.hpp"
 #include "core/option.hpp"
 #include "race/duel.hpp"
+#include "search/target.hpp"
 #include "tournament/tournament.hpp"
 
 namespace overshoot {
-
-enum class SearchTarget { cycle, no_winner, top_cycle, fair };
-
-std::string_view to_string(SearchTarget t);
-SearchTarget parse_search_target(std::string_view text);  // throws InputError
-
-// "A > B > C > A" (the last name repeats the first, or is left out) as option
-// indices; throws InputError naming an unknown or repeated name.
-std::vector<std::size_t> parse_cycle(std::string_view text, const std::vector<Option>& options);
 
 struct SearchSpec {
     Board board;                    // the board the changes are made to
@@ -41,6 +36,8 @@ struct SearchSpec {
     std::vector<int> from_squares;   // allowed jump sources (empty: any)
     std::vector<int> to_squares;     // allowed jump targets (empty: any)
     int length_lo = 0, length_hi = 0;  // lengths searched (0, 0: the board's length only)
+    std::vector<int> starts;         // the board's own start squares, one per option (empty: all 0)
+    int head_start_max = 0;          // > 0: any option may start on a square 0..head_start_max
     int keep = 5;                    // boards listed (the best, then runners-up)
     std::uint64_t seed = 1;          // several jumps: the beam's sampling
     int beam = 8;                    // several jumps: boards kept per level
@@ -53,6 +50,7 @@ struct SearchSpec {
 struct FoundBoard {
     Board board;                 // the whole board, ready for `tournament` or `certify`
     std::vector<Jump> added;     // the jumps the search added, by source square
+    std::vector<int> starts;     // one start square per option (as given; 0: none)
     double score = 0;            // from the verified races
     bool holds = false;          // the target holds with proven margins
     Tournament verified;         // race_matrix (automatic method) + analyse
@@ -60,26 +58,14 @@ struct FoundBoard {
 
 struct SearchResult {
     SearchTarget target = SearchTarget::cycle;
-    bool exhaustive = true;          // false when the beam search ran (K >= 2)
+    bool exhaustive = true;          // false when the beam search ran
+    bool start_grid = false;         // every assignment of head starts 0..H was raced
     std::uint64_t boards_raced = 0;  // candidate boards evaluated
     std::uint64_t boards_invalid = 0;  // candidate jumps refused (a loop of jumps)
     std::vector<int> lengths;        // lengths searched
     std::optional<FoundBoard> base;  // the unchanged board (the first length), verified
     std::vector<FoundBoard> best;    // best first, then runners-up
 };
-
-// The score of a target from a margin matrix (n x n, row minus column):
-//   cycle: the smallest margin along the cycle;
-//   no-winner: min over options of the largest margin by which another beats it;
-//   top-cycle: the largest t such that the arcs with margin >= t make a strongly
-//     connected digraph (bottleneck of strong connectivity);
-//   fair: minus the largest |margin|.
-double score_of(SearchTarget target, const std::vector<std::size_t>& cycle, std::size_t n,
-                const std::vector<double>& margin);
-
-// Whether the target holds on a verified tournament: the cycle's arcs are all
-// arcs, no Condorcet winner, the top cycle is every option; fair always holds.
-bool target_holds(SearchTarget target, const std::vector<std::size_t>& cycle, const Tournament& t);
 
 // Throws InputError for an empty space, a bad cycle, or an unknown square.
 SearchResult search_board(const SearchSpec& spec);

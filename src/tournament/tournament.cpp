@@ -155,7 +155,7 @@ Tournament analyse(PairwiseMatrix matrix, const TournamentSettings& settings) {
 }
 
 PairwiseMatrix race_matrix(const Board& board, Order order, const std::vector<Option>& options,
-                           const DuelSettings& duel_settings, int threads) {
+                           const DuelSettings& duel_settings, int threads, const std::vector<int>& starts) {
     if (order == Order::a_first || order == Order::b_first)
         throw InputError(fmt::format(
             "a tournament cannot use the turn order {}: with an alternating order the matrix would depend on the "
@@ -166,7 +166,10 @@ PairwiseMatrix race_matrix(const Board& board, Order order, const std::vector<Op
     require_distinct_names(m.names);  // before any race is run
     std::vector<Chain> chains;
     chains.reserve(options.size());
-    for (const Option& o : options) chains.push_back(build_chain(board, o));
+    if (!starts.empty() && starts.size() != options.size())
+        throw InternalError("race_matrix: one start square per option");
+    for (std::size_t i = 0; i < options.size(); ++i)
+        chains.push_back(build_chain(board, options[i], starts.empty() ? 0 : starts[i]));
     std::vector<DuelResult> r = duel_matrix(chains, order, duel_settings, threads);
     const std::size_t n = options.size();
     m.win.assign(n * n, 0.0);

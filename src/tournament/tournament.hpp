@@ -92,8 +92,9 @@ Tournament analyse(PairwiseMatrix matrix, const TournamentSettings& settings = {
 
 // The pairwise matrix of options raced on one board. Refuses a-first and
 // b-first (the result would depend on the seat, not the option) and duplicate
-// names.
+// names. `starts`: one start square per option (empty: every piece on 0).
 PairwiseMatrix race_matrix(const Board& board, Order order, const std::vector<Option>& options,
-                           const DuelSettings& duel_settings = {}, int threads = 0);
+                           const DuelSettings& duel_settings = {}, int threads = 0,
+                           const std::vector<int>& starts = {});
 
 }  // namespace overshoot

@@ -18,6 +18,10 @@ DESIGN.md ("Semantics, exactly"), sharing no code with the C++ engine:
 On forward-only boards both ways are run and must agree exactly; the
 binary's doubles must then agree within 1e-12.
 
+Head starts (`--head-start NAME:SQUARE`): the same equations read at the pair
+of start squares instead of (0, 0) (a start on a jump source takes the jump);
+for those cases the binary's `--exact` fractions must equal these exactly.
+
 Usage: check_duel_fractions.py BINARY SOURCE_DIR
 """
 import json
@@ -148,7 +152,7 @@ def round_terms(ra, rb, a, b, n, a_first):
     return const, moves
 
 
-def solve_dp(ra, rb, n, a_first):
+def solve_dp(ra, rb, n, a_first, start=(0, 0)):
     """Forward-only boards: pairs from the finish backwards."""
     x = {}
     for a in range(n - 1, -1, -1):
@@ -164,14 +168,14 @@ def solve_dp(ra, rb, n, a_first):
                 x[(a, b)] = [Fraction(0)] * 3  # both pieces stay for ever
             else:
                 x[(a, b)] = [v / (1 - self_loop) for v in value]
-    return x[(0, 0)]
+    return x[start]
 
 
-def solve_elimination(ra, rb, n, a_first):
+def solve_elimination(ra, rb, n, a_first, start=(0, 0)):
     """Any board: Gauss-Jordan over Fractions on pairs where a finish is possible."""
     fa, fb = can_finish(ra, n), can_finish(rb, n)
     states = [(a, b) for a in range(n) for b in range(n) if a in fa or b in fb]
-    if (0, 0) not in states:
+    if start not in states:
         return [Fraction(0)] * 3
     index = {s: i for i, s in enumerate(states)}
     size = len(states)
@@ -187,34 +191,43 @@ def solve_elimination(ra, rb, n, a_first):
                 row[index[s]] = row.get(index[s], 0) - p
         m.append({k: v for k, v in row.items() if v != 0})
     x = gauss_jordan(m, size)
-    return [x[index[(0, 0)]].get(k, Fraction(0)) for k in range(3)]
+    return [x[index[start]].get(k, Fraction(0)) for k in range(3)]
 
 
-def exact_duel(n, rule, jumps, spec_a, spec_b, order, cross_check=True):
+def rest_square(square, jumps):
+    """Where a piece placed on `square` rests: a jump source takes the jump."""
+    jump = dict(jumps)
+    while square in jump:
+        square = jump[square]
+    return square
+
+
+def exact_duel(n, rule, jumps, spec_a, spec_b, order, cross_check=True, starts=(0, 0)):
     """(P(A wins), P(B wins), P(tie), P(neither)) as Fractions."""
     ra = one_turn(n, rule, jumps, to_prob(OPTIONS[spec_a]))
     rb = one_turn(n, rule, jumps, to_prob(OPTIONS[spec_b]))
     forward = rule != "bounce" and all(t > f for f, t in jumps)
+    sa, sb = rest_square(starts[0], jumps), rest_square(starts[1], jumps)
 
-    def seated(x, y, a_first):
+    def seated(x, y, a_first, start):
         if forward and not cross_check:
-            return solve_dp(x, y, n, a_first)
+            return solve_dp(x, y, n, a_first, start)
         if forward:
-            dp = solve_dp(x, y, n, a_first)
-            el = solve_elimination(x, y, n, a_first)
+            dp = solve_dp(x, y, n, a_first, start)
+            el = solve_elimination(x, y, n, a_first, start)
             assert dp == el, f"reference methods disagree: {dp} vs {el}"
             return dp
-        return solve_elimination(x, y, n, a_first)
+        return solve_elimination(x, y, n, a_first, start)
 
     if order == "simultaneous":
-        w, l, t = seated(ra, rb, False)
+        w, l, t = seated(ra, rb, False, (sa, sb))
     elif order == "a-first":
-        w, l, t = seated(ra, rb, True)
+        w, l, t = seated(ra, rb, True, (sa, sb))
     elif order == "b-first":
-        l, w, t = seated(rb, ra, True)
+        l, w, t = seated(rb, ra, True, (sb, sa))
     else:  # coin
-        w1, l1, _ = seated(ra, rb, True)
-        l2, w2, _ = seated(rb, ra, True)
+        w1, l1, _ = seated(ra, rb, True, (sa, sb))
+        l2, w2, _ = seated(rb, ra, True, (sb, sa))
         w, l, t = (w1 + w2) / 2, (l1 + l2) / 2, Fraction(0)
     return w, l, t, 1 - w - l - t
 
@@ -233,6 +246,13 @@ BOARDS = [
     (7, [(2, 5), (5, 0)], "1d2+[0,2]", "1d4"),
     (8, [], "[2,2,5]", "{1:2,2:1}"),
     (8, [(2, 3)], "[2,2,5]", "2d2"),  # both can be stuck one short of the finish
+]
+# Head starts: (length, jumps, option A, option B, start A, start B); every rule and order.
+HEAD_STARTS = [
+    (7, [], "1d3", "2d2", 2, 0),
+    (8, [(3, 6)], "1d4", "[0,1,3]", 0, 3),  # B's start is a jump source: it rests on 6
+    (9, [(6, 1)], "2d2", "{1:2,2:1}", 4, 2),
+    (8, [(2, 5), (6, 0)], "[2,2,5]", "1d3", 5, 1),
 ]
 RULES = ["stay", "bounce", "pass"]
 ORDERS = ["simultaneous", "a-first", "b-first", "coin"]
@@ -253,19 +273,32 @@ def spelled(spec):
 def main():
     binary = sys.argv[1]
     failures, checked, nonzero_neither = [], 0, 0
-    cases = [(n, jumps, a, b, rule, order, True) for n, jumps, a, b in BOARDS for rule in RULES for order in ORDERS]
-    cases += [(n, jumps, a, b, rule, order, False) for n, jumps, a, b, rule, orders in HEAVY for order in orders]
-    for n, jumps, a, b, rule, order, cross_check in cases:
+    cases = [(n, jumps, a, b, rule, order, True, (0, 0)) for n, jumps, a, b in BOARDS for rule in RULES for order in ORDERS]
+    cases += [(n, jumps, a, b, rule, order, False, (0, 0)) for n, jumps, a, b, rule, orders in HEAVY for order in orders]
+    cases += [(n, jumps, a, b, rule, order, True, (ha, hb))
+              for n, jumps, a, b, ha, hb in HEAD_STARTS for rule in RULES for order in ORDERS]
+    exact_checked = 0
+    for n, jumps, a, b, rule, order, cross_check, starts in cases:
         args = [binary, "duel", spelled(a), spelled(b), "--length", str(n), "--overshoot", rule, "--order", order, "--json"]
         for f, t in jumps:
             args += ["--jump", f"{f}:{t}"]
+        for spec, square in zip((a, b), starts):
+            if square:
+                args += ["--head-start", f"{spelled(spec)}:{square}"]
+        if any(starts):
+            args.append("--exact")
         run = subprocess.run(args, capture_output=True, text=True)
         where = " ".join(args[1:])
         if run.returncode != 0:
             failures.append(f"{where}: exit {run.returncode}: {run.stderr.strip()}")
             continue
         got = json.loads(run.stdout)
-        want = exact_duel(n, rule, jumps, a, b, order, cross_check)
+        want = exact_duel(n, rule, jumps, a, b, order, cross_check, starts)
+        if "exact" in got:
+            exact_checked += 1
+            for key, value in zip(["p_a_wins", "p_b_wins", "p_tie", "p_neither"], want):
+                if Fraction(got["exact"][key]) != value:
+                    failures.append(f"{where}: exact {key} = {got['exact'][key]}, the reference {value}")
         if want[3] > 0:
             nonzero_neither += 1
         for key, value in zip(["p_a_wins", "p_b_wins", "p_tie", "p_neither"], want):
@@ -286,9 +319,12 @@ def main():
     # The boards must exercise pieces that can get stuck, or the check is weak.
     if nonzero_neither == 0:
         failures.append("no case with P(neither) > 0: the boards do not exercise stuck pieces")
+    if exact_checked != len(HEAD_STARTS) * len(RULES) * len(ORDERS):
+        failures.append(f"only {exact_checked} head-start duels gave exact fractions")
     for f in failures:
         print("FAIL", f)
-    print(f"{checked} probabilities checked against exact fractions, {len(failures)} failures")
+    print(f"{checked} probabilities checked against exact fractions ({exact_checked} head-start duels exactly), "
+          f"{len(failures)} failures")
     return 1 if failures else 0
 
 

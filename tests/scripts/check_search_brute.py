@@ -11,6 +11,10 @@ finishing). In simultaneous order P(A wins) = sum_t P(T_A = t) P(T_B > t)
 stops once the live mass is below 1e-15, so every margin here is within about
 1e-14 of the truth.
 
+Head starts (`--head-starts H --jumps 0`): the same series from each option's
+start square (a start on a jump source takes the jump), over every
+assignment of a start square 0..H to every option.
+
 Checks:
   * the five best boards and their scores equal the brute force's five best;
   * the reported strength of the best cycle equals `overshoot tournament` on
@@ -19,7 +23,9 @@ Checks:
 
 Usage: check_search_brute.py BINARY SOURCE_DIR
 """
+import itertools
 import json
+import shlex
 import os
 import subprocess
 import sys
@@ -69,7 +75,7 @@ def step_square(s, m, length, rule, jump):
     return t
 
 
-def track(d, length, rule, jumps):
+def track(d, length, rule, jumps, start=0):
     jump = dict(jumps)
     moves = {s: {} for s in range(length)}
     for s in range(length):
@@ -84,7 +90,6 @@ def track(d, length, rule, jumps):
             if s not in can and any(t in can for t, p in moves[s].items() if p > 0):
                 can.add(s)
                 changed = True
-    start = 0
     while start in jump:
         start = jump[start]
     alive = {start: 1.0}
@@ -120,8 +125,9 @@ def wins(ta, tb):
     return w
 
 
-def margins(specs, length, rule, jumps):
-    tr = [track(dist(s), length, rule, jumps) for s in specs]
+def margins(specs, length, rule, jumps, starts=None):
+    starts = starts or [0] * len(specs)
+    tr = [track(dist(s), length, rule, jumps, h) for s, h in zip(specs, starts)]
     n = len(specs)
     m = [[0.0] * n for _ in range(n)]
     for i in range(n):
@@ -191,7 +197,7 @@ def case(specs, length, rule, base_jumps, target, cycle_names=None):
             check(mine and abs(mine[0][0] - s) < 1e-12, f"{label}: board {added}: score {s}, brute force {mine}")
         # The printed board, given to `tournament` as flags and as the scenario file.
         best = doc["best"][0]
-        flags = best["flags"].split()
+        flags = shlex.split(best["flags"])
         t1 = json.loads(run(["tournament", *specs, *flags, "--json"]))
         t2 = json.loads(run(["tournament", "--scenario", scen, "--json"]))
         check(t1["wins"] == t2["wins"], f"{label}: the scenario file and the flags race differently")
@@ -207,11 +213,57 @@ def case(specs, length, rule, base_jumps, target, cycle_names=None):
                   f"{label}: the cycle's strength in tournament {found} differs from {best['score']}")
 
 
+def head_start_case(specs, length, rule, jumps, target, most, cycle_names=None):
+    """Every assignment of start squares 0..most, no added jump."""
+    label = f"{specs} length {length} {rule} jumps {jumps} head starts 0..{most} target {target}"
+    cycle = [specs.index(c) for c in cycle_names] if cycle_names else None
+    jump = dict(jumps)
+    brute = []
+    for starts in itertools.product(range(most + 1), repeat=len(specs)):
+        if any(rest(h, jump) >= length for h in starts):
+            continue  # a start whose jump leads to the finish
+        changes = sum(1 for h in starts if h)
+        brute.append((score(target, margins(specs, length, rule, jumps, list(starts)), cycle), changes, list(starts)))
+    # Best first; ties: fewer changes, then the start squares in order (the search's rule).
+    brute.sort(key=lambda x: (-x[0], x[1], x[2]))
+    args = ["search", *specs, "--length", str(length), "--overshoot", rule, "--target", target, "--keep", "5",
+            "--jumps", "0", "--head-starts", str(most), "--json"]
+    for f, t in jumps:
+        args += ["--jump", f"{f}:{t}"]
+    if cycle_names:
+        args += ["--cycle", " > ".join(cycle_names + [cycle_names[0]])]
+    doc = json.loads(run(args))
+    check(doc["exhaustive"] and doc["start_grid"], f"{label}: not searched as a grid")
+    got = doc["best"]
+    check(len(got) == 5, f"{label}: {len(got)} boards listed, expected 5")
+    for k, b in enumerate(got):
+        starts = [b["board"].get("head_starts", {}).get(sp, 0) for sp in specs]
+        check(abs(b["score"] - brute[k][0]) < 1e-12,
+              f"{label}: board {k + 1} scores {b['score']}, brute force's {k + 1}th best {brute[k][0]}")
+        mine = [x for x in brute if x[2] == starts]
+        check(mine and abs(mine[0][0] - b["score"]) < 1e-12, f"{label}: starts {starts}: score {b['score']}, brute force {mine}")
+    best = got[0]
+    t1 = json.loads(run(["tournament", *specs, *shlex.split(best["flags"]), "--json"]))
+    w = t1["wins"]
+    n = len(specs)
+    m = [[w[i][j] - w[j][i] if i != j else 0.0 for j in range(n)] for i in range(n)]
+    check(score(target, m, cycle) == best["score"],
+          f"{label}: tournament on the printed board scores {score(target, m, cycle)}, the search {best['score']}")
+
+
+def rest(square, jump):
+    while square in jump:
+        square = jump[square]
+    return square
+
+
 case(["1d3", "2d2", "[1,1,4]"], 11, "stay", [], "cycle", ["1d3", "2d2", "[1,1,4]"])
 case(["1d3", "2d2", "[1,1,4]"], 10, "bounce", [(7, 2)], "no-winner")
 case(["1d4", "[0,2,3]"], 9, "pass", [], "fair")
+head_start_case(["1d3", "2d2", "1d4"], 12, "stay", [(5, 9)], "cycle", 3, ["1d3", "2d2", "1d4"])
+head_start_case(["1d3", "2d2", "[1,1,4]"], 10, "bounce", [(7, 2), (3, 10)], "fair", 4)
 
 if failures:
     print("\n".join(failures))
     sys.exit(1)
-print("ok: one-jump board search equals the Python brute force")
+print("ok: one-jump and head-start board searches equal the Python brute force")
