@@ -19,6 +19,7 @@
 #include "render/figures.hpp"
 #include "render/report.hpp"
 #include "render/svg.hpp"
+#include "search/search.hpp"
 #include "race/balance.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/tournament.hpp"
@@ -41,6 +42,8 @@ struct ReportArgs {
     std::optional<std::string> balance_lengths;
     std::optional<std::string> policy_against, policy_against_menu;
     int policy_distance = 0;
+    std::optional<std::string> search_target, search_cycle;
+    int search_jumps = 1, search_head_starts = 0;
     int threads = 0;
 };
 
@@ -76,6 +79,9 @@ void run(const ReportArgs& a) {
     if (!want_all && (a.policy_against || a.policy_against_menu))
         throw InputError("--policy-against and --policy-against-menu belong to the HTML report, not to --figure");
     if (a.race_order && !multi) throw InputError("--race-order applies to --race, --choose and --balance-* only");
+    if (!a.search_target && (a.search_cycle || a.search_jumps != 1 || a.search_head_starts != 0))
+        throw InputError("--search-cycle, --search-jumps and --search-head-starts go with --search-target");
+    if (a.search_target && !want_all) throw InputError("--search-target belongs to the HTML report, not to --figure");
 
     render::ReportInput in;
     in.board = &s.board;
@@ -169,6 +175,24 @@ void run(const ReportArgs& a) {
         policy_view = render::DuelPolicyView{&s.board, s.order, &s.options, &against, &*policy, false, a.policy_distance};
         in.policy = &*policy_view;
     }
+    // The board search section: the report's options on the report's board.
+    SearchSpec search_spec;
+    std::optional<SearchResult> found;
+    if (a.search_target) {
+        search_spec.board = s.board;
+        search_spec.order = s.order;
+        search_spec.options = s.options;
+        search_spec.target = parse_search_target(*a.search_target);
+        if (a.search_cycle) search_spec.cycle = parse_cycle(*a.search_cycle, s.options);
+        if (search_spec.target == SearchTarget::cycle && !a.search_cycle)
+            throw InputError("--search-target cycle needs the cycle: --search-cycle 'A > B > C > A'");
+        search_spec.max_jumps = a.search_jumps;
+        search_spec.head_start_max = a.search_head_starts;
+        search_spec.threads = a.threads;
+        found = search_board(search_spec);
+        in.search = &*found;
+        in.search_spec = &search_spec;
+    }
     deliver(a.out, render::report_html(in));
 }
 
@@ -206,6 +230,16 @@ const Registration reg(80, [](CLI::App& app) {
     cmd->add_option("--policy-distance", args->policy_distance, "the policy map shows distances 1..D (default 0: all)")
         ->check(whole_in(0, limits::max_length))
         ->type_name("D");
+    cmd->add_option("--search-target", args->search_target,
+                    "add a board search for these options (docs/search.md): cycle, no-winner, top-cycle or fair")
+        ->check(one_of({"cycle", "no-winner", "top-cycle", "fair"}));
+    cmd->add_option("--search-cycle", args->search_cycle, "the wanted cycle of --search-target cycle, e.g. '1d6 > 3d6 > 2d6 > 1d6'");
+    cmd->add_option("--search-jumps", args->search_jumps, "most jumps the board search adds (default 1: exhaustive)")
+        ->check(whole_in(0, 8));
+    cmd->add_option("--search-head-starts", args->search_head_starts,
+                    "the board search also moves start squares to 0..H (default 0: no)")
+        ->type_name("H")
+        ->check(whole_in(0, limits::max_length));
     cmd->add_option("--threads", args->threads, "threads for the races (default 0: all cores)")->check(whole_in(0, 4096));
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);

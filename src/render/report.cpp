@@ -5,6 +5,7 @@
 #include <cmath>
 
 #include "render/figures.hpp"
+#include "render/search.hpp"
 #include "render/format.hpp"
 #include "render/several_pieces.hpp"
 #include "render/document.hpp"
@@ -292,6 +293,7 @@ std::string report_html(const ReportInput& in) {
     if (in.sweep) sweep_section(h, in);
     race_sections(h, in);
     if (in.policy) h += policy_section_html(*in.policy);
+    if (in.search) h += search_section_html(*in.search, *in.search_spec);
     h += "<footer>Written by overshoot " + escape(version) +
          ". Every probability carries a proven error bound; see docs/method.md.</footer>\n";
     h += "</main>\n</body>\n</html>\n";

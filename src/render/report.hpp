@@ -14,6 +14,7 @@
 #include "race/several_pieces.hpp"
 #include "race/balance.hpp"
 #include "render/policy.hpp"
+#include "search/search.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/tournament.hpp"
 
@@ -36,6 +37,9 @@ struct ReportInput {
     const LengthsResult* fair_lengths = nullptr;
     // Choosing the option every turn (the report's options are A's menu).
     const DuelPolicyView* policy = nullptr;
+    // A board search for these options on this board (report --search-target).
+    const SearchResult* search = nullptr;
+    const SearchSpec* search_spec = nullptr;
 };
 
 std::string report_html(const ReportInput& in);

@@ -242,6 +242,45 @@ std::string search_text(const SearchResult& r, const SearchSpec& spec) {
     return out;
 }
 
+std::string search_section_html(const SearchResult& r, const SearchSpec& spec) {
+    using svg::escape;
+    std::string h = "<section id=\"search\"><h2>Board search</h2>\n<p class=\"note\">";
+    h += escape(fmt::format("Target: {}. ", target_sentence(spec)));
+    std::string space = fmt::format("up to {} added jump{}", spec.max_jumps, spec.max_jumps == 1 ? "" : "s");
+    if (spec.head_start_max > 0) space += fmt::format(", head starts on squares 0..{}", spec.head_start_max);
+    if (r.lengths.size() > 1) space += fmt::format(", lengths {}..{}", r.lengths.front(), r.lengths.back());
+    h += escape(fmt::format("Searched {}: {} boards raced, {}. ", space, r.boards_raced,
+                            r.exhaustive ? "exhaustively"
+                                         : "by a seeded beam search (a search, not a proof that no better board exists)"));
+    h += "Every board listed was raced again by the duel engine with proven bounds.</p>\n";
+    if (r.base)
+        h += "<p>" + escape(fmt::format("Unchanged board: score {}{}. {}", points(r.base->score),
+                                        verdict(*r.base, spec).empty() ? "" : "; the target " + verdict(*r.base, spec),
+                                        arcs_line(*r.base, spec))) +
+             "</p>\n";
+    if (r.best.empty()) return h + "<p>No board was found.</p>\n</section>\n";
+    const FoundBoard& best = r.best.front();
+    h += "<figure>" +
+         board_figure(best.board, best.added, fmt::format("Best board of the search ({})", to_string(spec.target)),
+                      start_marks(spec.options, best.starts))
+             .str() +
+         "<figcaption>" +
+         escape(fmt::format("The best board: {}; added jumps bold, head starts labelled on their squares.",
+                            change_list(best, spec))) +
+         "</figcaption></figure>\n";
+    h += "<table><thead><tr><th>rank</th><th>changes</th><th>score</th><th>target</th><th>margins</th>"
+         "<th>board flags</th></tr></thead><tbody>\n";
+    for (std::size_t i = 0; i < r.best.size(); ++i) {
+        const FoundBoard& f = r.best[i];
+        h += fmt::format("<tr><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td>{}</td><td><code>{}</code></td></tr>\n",
+                         i + 1, escape(change_list(f, spec)), escape(points(f.score)),
+                         escape(verdict(f, spec).empty() ? "-" : verdict(f, spec)), escape(arcs_line(f, spec)),
+                         escape(board_flags(f.board, spec.order) + head_start_flags(spec.options, f.starts, false)));
+    }
+    h += "</tbody></table>\n</section>\n";
+    return h;
+}
+
 nlohmann::json search_json(const SearchResult& r, const SearchSpec& spec) {
     nlohmann::json j = document("search", 1);
     j["target"] = std::string(to_string(spec.target));

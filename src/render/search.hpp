@@ -13,6 +13,10 @@
 namespace overshoot::render {
 
 std::string search_text(const SearchResult& r, const SearchSpec& spec);
+// The report's section of a board search (HTML, id "search"): what was
+// searched, the unchanged board, the best board drawn with its jumps and head
+// starts, and a table of it and the runners-up with their flags.
+std::string search_section_html(const SearchResult& r, const SearchSpec& spec);
 nlohmann::json search_json(const SearchResult& r, const SearchSpec& spec);
 
 // The board flags that rebuild a board: "--length 100 --jump 97:20".

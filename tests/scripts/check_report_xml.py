@@ -156,6 +156,29 @@ def main():
         for sec in ("rules", "profiles", "matrix", "digraph", "cycles", "counters", "equilibrium", "sweep",
                     "race", "choice", "balance", "policy"):
             check(f'<section id="{sec}">' in doc, f"report has the {sec} section")
+        # 6. The board search section: the same boards as `search --json`, the best drawn.
+        page3 = os.path.join(tmp, "report-search.html")
+        args = ["1d6", "2d6", "3d6", "--length", "40"]
+        run(binary, "report", *args, "--search-target", "cycle", "--search-cycle", "1d6 > 3d6 > 2d6 > 1d6",
+            "--search-head-starts", "2", "-o", page3)
+        sj = json.loads(run(binary, "search", *args, "--cycle", "1d6 > 3d6 > 2d6 > 1d6", "--head-starts", "2",
+                            "--json").stdout)
+        with open(page3, encoding="utf-8") as f:
+            doc3 = f.read()
+        p3 = Page()
+        p3.feed(doc3)
+        p3.close()
+        check(not p3.errors and not p3.stack, f"search report: HTML elements nest and close: {p3.errors[:3]} {p3.stack}")
+        check('<section id="search">' in doc3, "report has the search section")
+        svgs3 = re.findall(r"<svg .*?</svg>", doc3, flags=re.S)
+        for s3 in svgs3:
+            ET.fromstring(s3)
+        check(any("Best board of the search" in s3 for s3 in svgs3), "the best board is drawn")
+        section = doc3[doc3.index('<section id="search">'):]
+        for b in sj["best"]:
+            flags = b["flags"].replace("'", "&#39;")
+            check(flags in section or b["flags"] in section, f"search report lists the board {b['flags']}")
+        check(section.count("<tr>") == len(sj["best"]) + 1, "one row per board listed, and the header")
         # Policy section against policy --json, and its map as a stand-alone figure.
         pj = json.loads(run(binary, "policy", "--length", "40", "--menu", "1d6,2d6,3d6", "--against", "2d6",
                             "--json").stdout)
