@@ -1,7 +1,9 @@
 #include "policy/alone.hpp"
 
+#include <Eigen/Dense>
 #include <cmath>
 #include <limits>
+#include <type_traits>
 
 #include "chain/series.hpp"
 #include "core/error.hpp"
@@ -78,6 +80,45 @@ void mark_sure(const std::vector<Moves<T>>& menu, const std::vector<int>& allowe
             if (in[s] && !reach[s]) in[s] = 0, changed = true;
     }
     for (int s : block) r.finite[s] = in[s];
+}
+
+// Values of fixed choices on one block of squares: x(s) = base + sum_d P(s, d)
+// x(d), the squares outside the block (and the finish, x[n]) known, by a
+// dense LU in long double (blocks with loops are small: under bounce the last
+// max-move squares). option[i] < 0 for the i-th square of the block: x = 0
+// there (a choice that never leaves it). Policy iteration (Howard, 1960,
+// Dynamic Programming and Markov Processes) evaluates its policies so; the
+// sweeps that follow and the residual proof do not depend on its accuracy.
+void evaluate_block(const std::vector<Moves<long double>>& menu, const std::vector<int>& block,
+                    const std::vector<int>& option, long double base, std::vector<long double>& x) {
+    const int m = static_cast<int>(block.size());
+    const int n = menu.front().length;
+    std::vector<int> at(static_cast<std::size_t>(n) + 1, -1);
+    for (int i = 0; i < m; ++i) at[block[i]] = i;
+    Eigen::Matrix<long double, Eigen::Dynamic, Eigen::Dynamic> a =
+        Eigen::Matrix<long double, Eigen::Dynamic, Eigen::Dynamic>::Zero(m, m);
+    Eigen::Matrix<long double, Eigen::Dynamic, 1> rhs =
+        Eigen::Matrix<long double, Eigen::Dynamic, 1>::Zero(m);
+    for (int i = 0; i < m; ++i) {
+        const int s = block[i];
+        if (option[i] < 0) {
+            a(i, i) = 1;
+            continue;
+        }
+        const Moves<long double>& mv = menu[option[i]];
+        a(i, i) = mv.leave[s];
+        rhs(i) = base;
+        for (auto q = mv.start[s]; q < mv.start[s + 1]; ++q) {
+            const int d = mv.dest[q];
+            if (at[d] >= 0)
+                a(i, at[d]) -= mv.p[q];
+            else
+                rhs(i) += mv.p[q] * x[d];
+        }
+    }
+    const Eigen::Matrix<long double, Eigen::Dynamic, 1> v = a.partialPivLu().solve(rhs);
+    for (int i = 0; i < m; ++i)
+        if (std::isfinite(v(i))) x[block[i]] = std::max(0.0L, v(i));
 }
 
 // Square by square, each block after the blocks it moves to (policy/blocks.hpp).
@@ -157,6 +198,24 @@ AloneT<T> solve(const std::vector<Moves<T>>& menu, const std::vector<int>& allow
             continue;
         }
         mark_sure(menu, allowed, block, r);
+        if constexpr (std::is_same_v<T, long double>) {
+            // Policy iteration first: heavy options (5d12 waits about 250,000
+            // rounds near the finish) would need millions of sweeps.
+            std::vector<int> oh(block.size()), oe(block.size()), last_h, last_e;
+            for (int it = 0; it < 50; ++it) {
+                for (int s : block) visit(s);
+                for (std::size_t i = 0; i < block.size(); ++i) {
+                    const int s = block[i];
+                    oh[i] = menu[r.surest[s].option].leave[s] > 0 ? r.surest[s].option : -1;
+                    oe[i] = r.finite[s] ? r.fastest[s].option : -1;
+                }
+                if (oh == last_h && oe == last_e) break;
+                evaluate_block(menu, block, oh, 0, r.h);
+                evaluate_block(menu, block, oe, 1, r.e);
+                last_h = oh;
+                last_e = oe;
+            }
+        }
         long double best = INFINITY;
         for (int sweep = 0, stale = 0; sweep < 1000000 && stale < 64; ++sweep) {
             long double moved = 0;
@@ -206,6 +265,28 @@ std::vector<long double> rounds_alone(const std::vector<Moves<long double>>& men
         if (blocks.single(b)) continue;
         const std::vector<int> block(blocks.squares.begin() + blocks.start[b],
                                      blocks.squares.begin() + blocks.start[b + 1]);
+        // Policy iteration first (see solve), then sweeps to settle.
+        std::vector<int> choice(block.size()), last;
+        for (int it = 0; it < 50; ++it) {
+            for (std::size_t i = 0; i < block.size(); ++i) {
+                const int s = block[i];
+                choice[i] = -1;
+                long double most = 0;
+                for (std::size_t o = 0; o < menu.size(); ++o) {
+                    const auto& m = menu[o];
+                    if (!(m.leave[s] > 0)) continue;
+                    long double sum = 1;
+                    for (auto q = m.start[s]; q < m.start[s + 1]; ++q) sum += m.p[q] * cur[m.dest[q]];
+                    if (choice[i] < 0 || sum / m.leave[s] > most)
+                        most = sum / m.leave[s], choice[i] = static_cast<int>(o);
+                }
+            }
+            if (choice == last) break;
+            evaluate_block(menu, block, choice, 1, cur);
+            for (int s : block)
+                if (!std::isfinite(cur[s]) || cur[s] > 1e15L) policy_detail::refuse_unbounded();
+            last = choice;
+        }
         long double best = INFINITY;
         for (int sweep = 0, stale = 0; sweep < 1000000 && stale < 64; ++sweep) {
             long double moved = 0;
