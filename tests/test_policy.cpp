@@ -249,6 +249,17 @@ TEST_CASE("policy: a piece alone on a bounce board", "[policy]") {
     }
     CHECK(p.bound < 1e-13);
     CHECK(p.relative_bound < 1e-12);
+    // A heavy option (5d12 waits about 250,000 rounds near the finish): the
+    // block's policy iteration, against the chain room's sparse LU (double,
+    // so a looser tolerance).
+    const Board plain = make_board(40, Overshoot::bounce, {});
+    auto heavy = chains(plain, {"1d6", "5d12"});
+    AlonePolicy h = solve_alone(heavy, false);
+    const Profile pr = profile(heavy[1]);
+    CHECK(std::fabs(static_cast<double>(h.fixed[1].rounds[0]) - pr.mean_turns_given_finish) <
+          1e-8 * pr.mean_turns_given_finish);
+    CHECK(h.best.rounds[0] <= h.fixed[0].rounds[0]);
+    CHECK(h.bound < 1e-9);
 }
 
 TEST_CASE("policy: refusals", "[policy]") {
