@@ -22,6 +22,9 @@ namespace {
 
 constexpr long double kTarget = 1e-14L;
 constexpr int kMaxHorizon = 1 << 16;
+// A general board's series runs in double while its proven rounding stays below
+// this (so a pair's bound stays well inside the wanted 1e-12).
+constexpr long double kFastRounding = 2e-13L;
 
 // One option's series up to the horizon: f[t], S[t] for t = 0..H and the
 // distribution left at H.
@@ -36,6 +39,8 @@ struct Trace {
 // Runs one option's series until it is done (alive mass below the target),
 // its zone (squares from the trailing mass to the finish) is narrow, or its
 // work budget is spent; then to the common horizon once that is known.
+// S is the series type: long double or double (general_traces chooses).
+template <class S>
 class Tracer {
 public:
     Tracer(const Chain& c, bool forward) : c_(&c), s_(c), forward_(forward) {
@@ -52,6 +57,7 @@ public:
         return s_.alive() < kTarget || s_.work() >= budget || (forward_ && c_->length - s_.low() <= narrow);
     }
     int turn() const { return s_.turn(); }
+    long double rounding() const { return s_.rounding_bound(); }
     // Zone width (squares from the trailing mass to the finish) at turn h,
     // known for h at a checkpoint or past the stop (where it can only shrink).
     int zone_at(int h) const {
@@ -67,7 +73,15 @@ public:
     // The trace at turn h: from a checkpoint when the series ran past h,
     // otherwise by running on to h.
     Trace finish(int h) {
-        while (s_.turn() < h) advance();
+        // On a general board a piece whose live mass is below the target is not
+        // stepped on to the common horizon: what it has left (at most the target)
+        // stays unresolved and is carried in the pair's bound as `alive`; its
+        // finishing chance is 0 and its survival constant for the padded turns.
+        while (s_.turn() < h && (forward_ || s_.alive() >= kTarget)) advance();
+        while (static_cast<int>(t_.f.size()) <= h) {
+            t_.f.push_back(0);
+            t_.s.push_back(t_.s.back());
+        }
         Trace out;
         out.f.assign(t_.f.begin(), t_.f.begin() + h + 1);
         out.s.assign(t_.s.begin(), t_.s.begin() + h + 1);
@@ -129,7 +143,7 @@ private:
         if ((t & (t - 1)) == 0 && t >= 8) checkpoints_.push_back(snapshot());
     }
     const Chain* c_;
-    Series s_;
+    S s_;
     bool forward_;
     Trace t_;
     std::vector<Snapshot> checkpoints_;
@@ -138,7 +152,8 @@ private:
 // Estimated work of the whole matrix with horizon h (the tracers have run at
 // least to h or stopped before): the series, a pass over h per pair, and the
 // pair programme on the zones left at h.
-double estimate(const std::vector<Tracer>& tracers, const std::vector<Chain>& chains, int h) {
+template <class T>
+double estimate(const std::vector<T>& tracers, const std::vector<Chain>& chains, int h) {
     const std::size_t n = tracers.size();
     double cost = 0;
     std::vector<double> zone(n), row(n);
@@ -156,6 +171,13 @@ double estimate(const std::vector<Tracer>& tracers, const std::vector<Chain>& ch
 }
 
 using Sums = ZoneSums;
+
+// Refuse before the traces are copied out: f and S per turn for every option.
+void check_trace_memory(const std::vector<Chain>& chains, int horizon) {
+    limits::check_memory(static_cast<std::uint64_t>(horizon + 1) * chains.size() * 2 * sizeof(long double) +
+                             static_cast<std::uint64_t>(chains.front().length) * chains.size() * 64,
+                         "the series of every option of this tournament");
+}
 
 // Rounds 1..H of one ordered race from the two traces.
 Sums prefix(const Trace& a, const Trace& b, int horizon, bool a_first) {
@@ -207,6 +229,66 @@ Sums closure(const Chain& ca, const Chain& cb, const Trace& a, const Trace& b, i
     return r;
 }
 
+// Forward boards: every option's trace (in long double, which the end-zone
+// closure reads) to one common horizon, chosen here by estimate().
+std::vector<Trace> forward_traces(const std::vector<Chain>& chains, int narrow, std::uint64_t budget, int cap,
+                                  int threads, int& horizon) {
+    const std::size_t n = chains.size();
+    std::vector<Tracer<Series>> tracers;
+    tracers.reserve(n);
+    for (const auto& c : chains) tracers.emplace_back(c, true);
+    horizon = 0;
+    // Double the horizon while it pays: each doubling costs series work and
+    // longer per-pair passes, and buys narrower zones for the pair programme.
+    double best_cost = -1;
+    for (int h = 8; h <= cap; h *= 2) {
+        parallel_for(n, threads, [&](std::size_t i) { tracers[i].run_to_stop(narrow, budget, h); });
+        double cost = estimate(tracers, chains, h);
+        if (best_cost < 0 || cost < best_cost) {
+            best_cost = cost;
+            horizon = h;
+        }
+        bool all_stopped = true;
+        for (const auto& t : tracers) all_stopped = all_stopped && t.stopped(narrow, budget);
+        if (all_stopped || cost > 1.5 * best_cost) break;
+    }
+    // Nothing gained past the last turn any tracer reached.
+    int longest = 0;
+    for (const auto& t : tracers) longest = std::max(longest, t.turn());
+    horizon = std::min(horizon, longest);
+    check_trace_memory(chains, horizon);
+    std::vector<Trace> traces(n);
+    parallel_for(n, threads, [&](std::size_t i) { traces[i] = tracers[i].finish(horizon); });
+    return traces;
+}
+
+// General boards: each option's series runs until its live mass is below the
+// target, in double when the proven rounding of that run stays below
+// kFastRounding (about three times faster than long double), otherwise again
+// in long double; the horizon is the longest run.
+std::vector<Trace> general_traces(const std::vector<Chain>& chains, std::uint64_t budget, int cap, int threads,
+                                  int& horizon) {
+    const std::size_t n = chains.size();
+    std::vector<std::optional<Tracer<FastSeries>>> fast(n);
+    std::vector<std::optional<Tracer<Series>>> precise(n);
+    parallel_for(n, threads, [&](std::size_t i) {
+        fast[i].emplace(chains[i], false);
+        fast[i]->run_to_stop(0, budget, cap);
+        if (fast[i]->rounding() > kFastRounding) {
+            fast[i].reset();
+            precise[i].emplace(chains[i], false);
+            precise[i]->run_to_stop(0, budget, cap);
+        }
+    });
+    horizon = 0;
+    for (std::size_t i = 0; i < n; ++i) horizon = std::max(horizon, fast[i] ? fast[i]->turn() : precise[i]->turn());
+    check_trace_memory(chains, horizon);
+    std::vector<Trace> traces(n);
+    parallel_for(n, threads,
+                 [&](std::size_t i) { traces[i] = fast[i] ? fast[i]->finish(horizon) : precise[i]->finish(horizon); });
+    return traces;
+}
+
 DuelResult make_result(const Sums& s, long double bound, DuelMethod method) {
     DuelResult d;
     d.p_a_wins = s.win;
@@ -252,38 +334,9 @@ std::vector<DuelResult> duel_matrix(const std::vector<Chain>& chains, Order orde
     const int narrow = 12;
     const std::uint64_t budget = forward ? 500'000 : s.work_limit / std::max<std::size_t>(n, 1);
     const int cap = forward ? kMaxHorizon : 1 << 24;
-    std::vector<Tracer> tracers;
-    tracers.reserve(n);
-    for (const auto& c : chains) tracers.emplace_back(c, forward);
     int horizon = 0;
-    if (forward) {
-        // Double the horizon while it pays: each doubling costs series work and
-        // longer per-pair passes, and buys narrower zones for the pair programme.
-        double best_cost = -1;
-        for (int h = 8; h <= cap; h *= 2) {
-            parallel_for(n, threads, [&](std::size_t i) { tracers[i].run_to_stop(narrow, budget, h); });
-            double cost = estimate(tracers, chains, h);
-            if (best_cost < 0 || cost < best_cost) {
-                best_cost = cost;
-                horizon = h;
-            }
-            bool all_stopped = true;
-            for (const auto& t : tracers) all_stopped = all_stopped && t.stopped(narrow, budget);
-            if (all_stopped || cost > 1.5 * best_cost) break;
-        }
-        // Nothing gained past the last turn any tracer reached.
-        int longest = 0;
-        for (const auto& t : tracers) longest = std::max(longest, t.turn());
-        horizon = std::min(horizon, longest);
-    } else {
-        parallel_for(n, threads, [&](std::size_t i) { tracers[i].run_to_stop(narrow, budget, cap); });
-        for (const auto& t : tracers) horizon = std::max(horizon, t.turn());
-    }
-    limits::check_memory(static_cast<std::uint64_t>(horizon + 1) * n * 2 * sizeof(long double) +
-                             static_cast<std::uint64_t>(chains.front().length) * n * 64,
-                         "the series of every option of this tournament");
-    std::vector<Trace> traces(n);
-    parallel_for(n, threads, [&](std::size_t i) { traces[i] = tracers[i].finish(horizon); });
+    const std::vector<Trace> traces = forward ? forward_traces(chains, narrow, budget, cap, threads, horizon)
+                                              : general_traces(chains, budget, cap, threads, horizon);
 
     std::vector<std::pair<std::size_t, std::size_t>> jobs;
     for (std::size_t i = 0; i < n; ++i)
