@@ -111,3 +111,23 @@ TEST_CASE("auto takes the closure for fast heavy pairs and the whole programme f
     REQUIRE(parse_length_method("closure") == LengthMethod::closure);
     REQUIRE(to_string(LengthMethod::closure) == "closure");
 }
+
+TEST_CASE("the closure gives the same bits on one thread and on two", "[lengths][closure]") {
+    // A lone pair shares the building of K and the band sums between the
+    // threads; each block of offsets sums on its own and blocks add in order.
+    const auto o = options({"6d20", "5d12"});
+    for (Order order : {Order::simultaneous, Order::coin}) {
+        LengthSettings one, two;
+        one.method = two.method = LengthMethod::closure;
+        one.threads = 1;
+        two.threads = 2;
+        auto a = all_lengths(o, Overshoot::stay, order, 700, every_pair(2), one);
+        auto b = all_lengths(o, Overshoot::stay, order, 700, every_pair(2), two);
+        for (int d = 1; d <= 700; ++d) {
+            REQUIRE(a[0].by_length[d].p_a_wins == b[0].by_length[d].p_a_wins);
+            REQUIRE(a[0].by_length[d].p_b_wins == b[0].by_length[d].p_b_wins);
+            REQUIRE(a[0].by_length[d].p_tie == b[0].by_length[d].p_tie);
+            REQUIRE(a[0].by_length[d].bound == b[0].by_length[d].bound);
+        }
+    }
+}

@@ -4,6 +4,7 @@
 #include <cmath>
 
 #include "core/limits.hpp"
+#include "core/parallel.hpp"
 #include "lengths/rows.hpp"
 
 #pragma GCC diagnostic ignored "-Wpsabi"
@@ -51,45 +52,45 @@ Power next_power(const Power& p, const DistanceModel& o, int top, double& cut, s
     return q;
 }
 
-typedef double v4 __attribute__((vector_size(32)));
-typedef double v4u __attribute__((vector_size(32), aligned(8)));
-inline v4 load(const double* p) { return *reinterpret_cast<const v4u*>(p); }
 
-inline void store(double* p, v4 v) { *reinterpret_cast<v4u*>(p) = v; }
 
 // Sixteen starts at once: ow[o] += sum_j k[o - j] fw[j] (and ol with fl),
 // o = 0..15. Each lane is one start and adds its n terms in order of j, so
 // every clone gives the same bits (no fused multiply-adds).
 __attribute__((target_clones("avx512f", "avx2", "default"), optimize("fp-contract=off"))) void conv16(
     const double* k, const double* fw, const double* fl, int n, double* ow, double* ol) {
-    v4 w0 = {0, 0, 0, 0}, w1 = w0, w2 = w0, w3 = w0, l0 = w0, l1 = w0, l2 = w0, l3 = w0;
+    // Eight lanes a vector: one register each under AVX-512, two or four otherwise.
+    typedef double v8 __attribute__((vector_size(64)));
+    typedef double v8u __attribute__((vector_size(64), aligned(8)));
+    auto load8 = [](const double* p) { return *reinterpret_cast<const v8u*>(p); };
+    v8 w0 = {0, 0, 0, 0, 0, 0, 0, 0}, w1 = w0, l0 = w0, l1 = w0;
     for (int j = 0; j < n; ++j) {
         const double* c = k - j;
-        const v4 k0 = load(c), k1 = load(c + 4), k2 = load(c + 8), k3 = load(c + 12);
+        const v8 k0 = load8(c), k1 = load8(c + 8);
         const double pw = fw[j], pl = fl[j];
         w0 += k0 * pw;
         w1 += k1 * pw;
-        w2 += k2 * pw;
-        w3 += k3 * pw;
         l0 += k0 * pl;
         l1 += k1 * pl;
-        l2 += k2 * pl;
-        l3 += k3 * pl;
     }
-    store(ow, load(ow) + w0);
-    store(ow + 4, load(ow + 4) + w1);
-    store(ow + 8, load(ow + 8) + w2);
-    store(ow + 12, load(ow + 12) + w3);
-    store(ol, load(ol) + l0);
-    store(ol + 4, load(ol + 4) + l1);
-    store(ol + 8, load(ol + 8) + l2);
-    store(ol + 12, load(ol + 12) + l3);
+    *reinterpret_cast<v8u*>(ow) = load8(ow) + w0;
+    *reinterpret_cast<v8u*>(ow + 8) = load8(ow + 8) + w1;
+    *reinterpret_cast<v8u*>(ol) = load8(ol) + l0;
+    *reinterpret_cast<v8u*>(ol + 8) = load8(ol + 8) + l1;
 }
 
 // dst[i] += a[i] b[i]: one round's share of a row of K.
 __attribute__((target_clones("avx2", "default"), optimize("O3", "tree-vectorize", "fp-contract=off"))) void multiply_add(
     double* __restrict dst, const double* __restrict a, const double* __restrict b, int n) {
     for (int i = 0; i < n; ++i) dst[i] += a[i] * b[i];
+}
+
+// Two rounds in one pass: dst[i] = (dst[i] + a[i] b[i]) + c[i] e[i], the same
+// bits as two passes, with one load and store of dst instead of two.
+__attribute__((target_clones("avx2", "default"), optimize("O3", "tree-vectorize", "fp-contract=off"))) void multiply_add2(
+    double* __restrict dst, const double* __restrict a, const double* __restrict b, const double* __restrict c,
+    const double* __restrict e, int n) {
+    for (int i = 0; i < n; ++i) dst[i] = (dst[i] + a[i] * b[i]) + c[i] * e[i];
 }
 
 // K(u, v) by rows u = 0..rows-1, each on its window [lo[u], hi[u]] (empty when hi < lo).
@@ -140,7 +141,8 @@ double closure_work(const DistanceModel& A, const DistanceModel& B, int L) {
 }
 
 ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool a_first, int L, double* dw, double* dl,
-                           std::vector<double>& depth, std::vector<double>& cut, std::atomic<bool>* cancel) {
+                           std::vector<double>& depth, std::vector<double>& cut, std::atomic<bool>* cancel,
+                           int threads) {
     ClosureCounts counts;
     const int za = A.zone, zb = B.zone;
     depth.assign(static_cast<std::size_t>(L) + 1, 0.0);
@@ -211,41 +213,82 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
         round_from[s] = pa[s].lo - (pb[s].lo + static_cast<int>(pb[s].p.size()) - 1);
         round_to[s] = pa[s].lo + static_cast<int>(pa[s].p.size()) - 1 - pb[s].lo;
     }
-    for (int delta = dlo; delta <= dhi; ++delta) {
-        const auto e = static_cast<std::size_t>(delta - dlo);
-        if (D.hi[e] < D.lo[e]) continue;
-        if (cancel && (e & 63) == 0 && cancel->load(std::memory_order_relaxed)) throw Cancelled{};
-        double* row = D.k.data() + D.off[e] - D.lo[e];
-        for (int s = 0; s < rounds; ++s) {
-            if (delta < round_from[s] || delta > round_to[s]) continue;
-            int lo, hi;
-            span(s, delta, lo, hi);
-            multiply_add(row + lo, pa[s].p.data() + (lo - pa[s].lo), pb[s].p.data() + (lo - delta - pb[s].lo), hi - lo + 1);
-            counts.multiply_adds += static_cast<std::uint64_t>(hi - lo + 1);
-        }
-    }
-    // Trim each row's edges (their sum goes to the bound: a start reads each entry at most once).
+    // Rows in blocks of 64 offsets, one job each (a job writes only its rows:
+    // the same bits whatever the number of threads).
+    const std::size_t offsets = D.lo.size(), blocks = (offsets + 63) / 64;
+    std::vector<std::uint64_t> block_madds(blocks, 0);
+    std::vector<double> row_cut(offsets, 0.0);
+    std::vector<int> klo(offsets), khi(offsets);
+    parallel_for(
+        blocks, threads,
+        [&](std::size_t c) {
+            for (std::size_t e = 64 * c; e < std::min(offsets, 64 * c + 64); ++e) {
+                klo[e] = D.lo[e] + pad;
+                khi[e] = D.hi[e] - pad;
+                if (D.hi[e] < D.lo[e]) continue;
+                const int delta = static_cast<int>(e) + dlo;
+                double* row = D.k.data() + D.off[e] - D.lo[e];
+                // Round s on [lo, hi] of this row; rounds go in pairs (each entry
+                // still adds its rounds in order of s).
+                auto one = [&](int s, int lo, int hi) {
+                    if (lo <= hi)
+                        multiply_add(row + lo, pa[s].p.data() + (lo - pa[s].lo),
+                                     pb[s].p.data() + (lo - delta - pb[s].lo), hi - lo + 1);
+                };
+                int held = -1, hlo = 0, hhi = -1;
+                for (int s = 0; s < rounds; ++s) {
+                    if (delta < round_from[s] || delta > round_to[s]) continue;
+                    int lo, hi;
+                    span(s, delta, lo, hi);
+                    if (lo > hi) continue;
+                    block_madds[c] += static_cast<std::uint64_t>(hi - lo + 1);
+                    if (held < 0) {
+                        held = s;
+                        hlo = lo;
+                        hhi = hi;
+                        continue;
+                    }
+                    // Both rounds on the common part, each alone on the rest:
+                    // the held round's own part first, then the fused part, then s's.
+                    const int clo = std::max(hlo, lo), chi = std::min(hhi, hi);
+                    if (clo > chi) {
+                        one(held, hlo, hhi);
+                        one(s, lo, hi);
+                    } else {
+                        one(held, hlo, clo - 1);
+                        one(held, chi + 1, hhi);
+                        one(s, lo, clo - 1);
+                        multiply_add2(row + clo, pa[held].p.data() + (clo - pa[held].lo),
+                                      pb[held].p.data() + (clo - delta - pb[held].lo), pa[s].p.data() + (clo - pa[s].lo),
+                                      pb[s].p.data() + (clo - delta - pb[s].lo), chi - clo + 1);
+                        one(s, chi + 1, hi);
+                    }
+                    held = -1;
+                }
+                if (held >= 0) one(held, hlo, hhi);
+                // Trim the row's edges (their sum goes to the bound: a start reads each entry at most once).
+                while (klo[e] <= khi[e] && row[klo[e]] < trim_k) {
+                    row_cut[e] += row[klo[e]];
+                    row[klo[e]++] = 0.0;
+                }
+                while (khi[e] >= klo[e] && row[khi[e]] < trim_k) {
+                    row_cut[e] += row[khi[e]];
+                    row[khi[e]--] = 0.0;
+                }
+            }
+        },
+        cancel);
+    if (cancel && cancel->load()) throw Cancelled{};
     double cut_k = 0;
     int klo_all = 1 << 30, khi_all = -(1 << 30);
-    std::vector<int> klo(D.lo.size()), khi(D.lo.size());
-    for (std::size_t e = 0; e < D.lo.size(); ++e) {
-        klo[e] = D.lo[e] + pad;
-        khi[e] = D.hi[e] - pad;
-        if (khi[e] < klo[e]) continue;
-        double* r = D.k.data() + D.off[e] - D.lo[e];
-        while (klo[e] <= khi[e] && r[klo[e]] < trim_k) {
-            cut_k += r[klo[e]];
-            r[klo[e]++] = 0.0;
-        }
-        while (khi[e] >= klo[e] && r[khi[e]] < trim_k) {
-            cut_k += r[khi[e]];
-            r[khi[e]--] = 0.0;
-        }
+    for (std::size_t e = 0; e < offsets; ++e) {
+        cut_k += row_cut[e];
         if (khi[e] >= klo[e]) {
             klo_all = std::min(klo_all, static_cast<int>(e) + dlo);
             khi_all = std::max(khi_all, static_cast<int>(e) + dlo);
         }
     }
+    for (std::uint64_t m : block_madds) counts.multiply_adds += m;
     // The strip, on the columns and rows the sums below read: band rows up
     // to y = 2za + delta, band columns up to x = 2zb - delta.
     const int used_lo = std::min(klo_all, 0), used_hi = std::max(khi_all, 0);
@@ -253,71 +296,76 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
     strip.last_row = std::min(L, std::max({2 * za, 2 * zb - used_lo, zb}));
     counts.multiply_adds += diagonal_rows(A, B, a_first, L, dw, dl, true, cancel, &strip).multiply_adds;
     const std::size_t stride = static_cast<std::size_t>(L) + 1;
-    // Each offset's sums go to a chunk total first, flushed every 64 offsets:
-    // a start's sum then adds at most 64 + offsets / 64 terms in a row.
-    std::vector<double> out_w(static_cast<std::size_t>(L) + 48, 0.0), out_l(out_w.size(), 0.0);
-    std::vector<double> sum_w(out_w.size(), 0.0), sum_l(out_w.size(), 0.0);
-    int chunks = 0;
-    auto flush = [&] {
-        for (std::size_t d = 0; d < out_w.size(); ++d) {
-            sum_w[d] += out_w[d];
-            sum_l[d] += out_l[d];
-            out_w[d] = out_l[d] = 0.0;
-        }
-        ++chunks;
-    };
+    // Each block of 64 offsets sums into its own totals, added up in block
+    // order afterwards: a start's sum adds at most 64 + blocks terms in a row,
+    // the same bits whatever the number of threads.
+    const std::size_t width = static_cast<std::size_t>(L) + 48;
+    std::vector<double> part_w(blocks * width, 0.0), part_l(part_w.size(), 0.0);
+    std::vector<int> block_widest(blocks, 0);
+    const int nx = std::max(0, std::min(L, 2 * za) - za), ny = std::max(0, std::min(L, 2 * zb) - zb);
+    std::fill(block_madds.begin(), block_madds.end(), 0);
+    parallel_for(
+        blocks, threads,
+        [&](std::size_t c) {
+            double* out_w = part_w.data() + c * width;
+            double* out_l = part_l.data() + c * width;
+            std::vector<double> fw(static_cast<std::size_t>(std::max(nx, ny)) + 1), fl(fw.size());
+            // out[d] += sum_j k[d - p0 - j + shift] f[j] for d in [from, to] (k: the delta row by u).
+            auto convolve = [&](const double* k, int k_lo, int k_hi, int n, int p0, int shift) {
+                // Only the taps from the first to the last nonzero one (a zero tap adds +0).
+                int j0 = 0, j1 = n - 1;
+                while (j0 <= j1 && fw[j0] == 0.0 && fl[j0] == 0.0) ++j0;
+                while (j1 >= j0 && fw[j1] == 0.0 && fl[j1] == 0.0) --j1;
+                if (j0 > j1) return;
+                n = j1 - j0 + 1;
+                p0 += j0;
+                const int from = std::max(first, k_lo + p0 - shift), to = std::min(L, k_hi + p0 + n - 1 - shift);
+                for (int d0 = from; d0 <= to; d0 += 16) {
+                    conv16(k + (d0 - p0 + shift), fw.data() + j0, fl.data() + j0, n, out_w + d0, out_l + d0);
+                    block_madds[c] += 32 * static_cast<std::uint64_t>(n);
+                }
+                block_widest[c] = std::max(block_widest[c], n);
+            };
+            for (std::size_t e = 64 * c; e < std::min(offsets, 64 * c + 64); ++e) {
+                if (khi[e] < klo[e]) continue;
+                const int delta = static_cast<int>(e) + dlo;
+                const double* k = D.row(static_cast<int>(e));  // k[u], u in [lo, hi] (padding included)
+                // Band rows: x = za + 1 + j, y = x + delta in (zb, L].
+                for (int j = 0; j < nx; ++j) {
+                    const int x = za + 1 + j, y = x + delta;
+                    const bool in = y > zb && y <= strip.width;
+                    const std::size_t at = static_cast<std::size_t>(j) * stride + static_cast<std::size_t>(L - y);
+                    fw[j] = in ? strip.row_w[at] : 0.0;
+                    fl[j] = in ? strip.row_l[at] : 0.0;
+                }
+                convolve(k, klo[e], khi[e], nx, za + 1, 0);
+                // Band columns: y = zb + 1 + j, x = y - delta in (2za, L].
+                for (int j = 0; j < ny; ++j) {
+                    const int y = zb + 1 + j, x = y - delta;
+                    const bool in = x > 2 * za && x <= strip.last_row;
+                    const std::size_t at = static_cast<std::size_t>(j) * stride + static_cast<std::size_t>(L - x);
+                    fw[j] = in ? strip.col_w[at] : 0.0;
+                    fl[j] = in ? strip.col_l[at] : 0.0;
+                }
+                convolve(k, klo[e], khi[e], ny, zb + 1, delta);
+            }
+        },
+        cancel);
+    if (cancel && cancel->load()) throw Cancelled{};
     int widest = 0;
-    {
-        const int nx = std::max(0, std::min(L, 2 * za) - za), ny = std::max(0, std::min(L, 2 * zb) - zb);
-        std::vector<double> fw(static_cast<std::size_t>(std::max(nx, ny)) + 1), fl(fw.size());
-        // out[d] += sum_j k[d - p0 - j + shift] f[j] for d in [from, to] (k: the delta row by u).
-        auto convolve = [&](const double* k, int k_lo, int k_hi, int n, int p0, int shift) {
-            // Only the taps from the first to the last nonzero one (a zero tap adds +0).
-            int j0 = 0, j1 = n - 1;
-            while (j0 <= j1 && fw[j0] == 0.0 && fl[j0] == 0.0) ++j0;
-            while (j1 >= j0 && fw[j1] == 0.0 && fl[j1] == 0.0) --j1;
-            if (j0 > j1) return;
-            n = j1 - j0 + 1;
-            p0 += j0;
-            const int from = std::max(first, k_lo + p0 - shift), to = std::min(L, k_hi + p0 + n - 1 - shift);
-            for (int d0 = from; d0 <= to; d0 += 16) {
-                conv16(k + (d0 - p0 + shift), fw.data() + j0, fl.data() + j0, n, out_w.data() + d0, out_l.data() + d0);
-                counts.multiply_adds += 32 * static_cast<std::uint64_t>(n);
-            }
-            widest = std::max(widest, n);
-        };
-        for (int delta = dlo; delta <= dhi; ++delta) {
-            const auto e = static_cast<std::size_t>(delta - dlo);
-            if (e % 64 == 0 && e > 0) flush();
-            if (D.hi[e] < D.lo[e]) continue;
-            if (cancel && (delta & 63) == 0 && cancel->load(std::memory_order_relaxed)) throw Cancelled{};
-            if (khi[e] < klo[e]) continue;
-            const double* k = D.row(static_cast<int>(e));  // k[u], u in [lo, hi] (padding included)
-            const int kl = klo[e], kh = khi[e];
-            // Band rows: x = za + 1 + j, y = x + delta in (zb, L].
-            for (int j = 0; j < nx; ++j) {
-                const int x = za + 1 + j, y = x + delta;
-                const bool in = y > zb && y <= strip.width;
-                const std::size_t at = static_cast<std::size_t>(j) * stride + static_cast<std::size_t>(L - y);
-                fw[j] = in ? strip.row_w[at] : 0.0;
-                fl[j] = in ? strip.row_l[at] : 0.0;
-            }
-            convolve(k, kl, kh, nx, za + 1, 0);
-            // Band columns: y = zb + 1 + j, x = y - delta in (2za, L].
-            for (int j = 0; j < ny; ++j) {
-                const int y = zb + 1 + j, x = y - delta;
-                const bool in = x > 2 * za && x <= strip.last_row;
-                const std::size_t at = static_cast<std::size_t>(j) * stride + static_cast<std::size_t>(L - x);
-                fw[j] = in ? strip.col_w[at] : 0.0;
-                fl[j] = in ? strip.col_l[at] : 0.0;
-            }
-            convolve(k, kl, kh, ny, zb + 1, delta);
-        }
+    for (std::size_t c = 0; c < blocks; ++c) {
+        counts.multiply_adds += block_madds[c];
+        widest = std::max(widest, block_widest[c]);
     }
-    flush();
+    const int chunks = static_cast<int>(blocks);
     for (int d = first; d <= L; ++d) {
-        dw[d] = sum_w[d];
-        dl[d] = sum_l[d];
+        double w = 0, l = 0;
+        for (std::size_t c = 0; c < blocks; ++c) {
+            w += part_w[c * width + static_cast<std::size_t>(d)];
+            l += part_l[c * width + static_cast<std::size_t>(d)];
+        }
+        dw[d] = w;
+        dl[d] = l;
     }
     // Roundings on a path beyond the programme's: a power is s steps of at
     // most k + 1 roundings (start d reads rounds s <= d / smallest move), an

@@ -36,7 +36,9 @@ struct ClosureCounts {
 // a_first), as diagonal_rows, and per start what the bound adds to the
 // programme's: `depth` extra roundings on every path, `cut` the mass left out
 // by trimming the convolution powers (both per start d, L + 1 entries).
+// `threads` share the building of K and the band sums (the same bits for any number).
 ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool a_first, int L, double* dw, double* dl,
-                           std::vector<double>& depth, std::vector<double>& cut, std::atomic<bool>* cancel);
+                           std::vector<double>& depth, std::vector<double>& cut, std::atomic<bool>* cancel,
+                           int threads = 1);
 
 }  // namespace overshoot::lengths_engine

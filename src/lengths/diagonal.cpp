@@ -17,13 +17,13 @@ namespace {
 // max-move + 1 rows (rows.cpp); returns (win, loss) of every diagonal start (d, d).
 void diagonal_programme(const DistanceModel& A, const DistanceModel& B, bool a_first, int L, std::vector<double>& dw,
                         std::vector<double>& dl, std::vector<double>& bound, std::atomic<bool>* cancel,
-                        DiagonalKind kind) {
+                        DiagonalKind kind, int threads) {
     dw.assign(L + 1, 0);
     dl.assign(L + 1, 0);
     bound.assign(L + 1, 0);
     std::vector<double> depth(L + 1, 0.0), cut(L + 1, 0.0);
     if (kind == DiagonalKind::closure)
-        closure_rows(A, B, a_first, L, dw.data(), dl.data(), depth, cut, cancel);
+        closure_rows(A, B, a_first, L, dw.data(), dl.data(), depth, cut, cancel, threads);
     else
         diagonal_rows(A, B, a_first, L, dw.data(), dl.data(), kind == DiagonalKind::rows, cancel);
     // Depth of the programme (hops that change a or b) times one hop's rounding;
@@ -37,7 +37,7 @@ void diagonal_programme(const DistanceModel& A, const DistanceModel& B, bool a_f
 }  // namespace
 
 std::vector<LengthOutcome> diagonal_duels(const DistanceModel& A, const DistanceModel& B, Order order, int L,
-                                       std::atomic<bool>* cancel, DiagonalKind kind) {
+                                       std::atomic<bool>* cancel, DiagonalKind kind, int threads) {
     if (kind == DiagonalKind::closure && !closure_applies(A, B)) kind = DiagonalKind::rows;
     Tallies sim, af, bf;
     std::vector<double> bound(L + 1, 0), b1, b2;
@@ -46,18 +46,18 @@ std::vector<LengthOutcome> diagonal_duels(const DistanceModel& A, const Distance
     OrderedRaces r = needed_races(order);
     if (r.simultaneous) {
         sim.init(L);
-        diagonal_programme(A, B, false, L, sim.win, sim.loss, bound, cancel, kind);
+        diagonal_programme(A, B, false, L, sim.win, sim.loss, bound, cancel, kind, threads);
         for (int d = 1; d <= L; ++d) sim.tie[d] = std::max(0.0, 1.0 - sim.win[d] - sim.loss[d] - neither[d]);
         for (int d = 1; d <= L; ++d) bound[d] += 4 * unit_d;
     }
     if (r.a_first) {
         af.init(L);
-        diagonal_programme(A, B, true, L, af.win, af.loss, b1, cancel, kind);
+        diagonal_programme(A, B, true, L, af.win, af.loss, b1, cancel, kind, threads);
         for (int d = 1; d <= L; ++d) bound[d] = std::max(bound[d], b1[d]);
     }
     if (r.b_first) {
         bf.init(L);
-        diagonal_programme(B, A, true, L, bf.loss, bf.win, b2, cancel, kind);
+        diagonal_programme(B, A, true, L, bf.loss, bf.win, b2, cancel, kind, threads);
         for (int d = 1; d <= L; ++d) bound[d] = std::max(bound[d], b2[d]);
     }
     // The tie of a simultaneous race is what is left: its bound is the sum of the others'.

@@ -16,7 +16,9 @@ namespace overshoot::lengths_engine {
 enum class DiagonalKind { cells, rows, closure };
 
 // Every length 1..L of one pair in the requested order; throws Cancelled.
+// `threads` share the closure's work (the same bits for any number).
 std::vector<LengthOutcome> diagonal_duels(const DistanceModel& A, const DistanceModel& B, Order order, int L,
-                                       std::atomic<bool>* cancel, DiagonalKind kind = DiagonalKind::rows);
+                                       std::atomic<bool>* cancel, DiagonalKind kind = DiagonalKind::rows,
+                                       int threads = 1);
 
 }  // namespace overshoot::lengths_engine

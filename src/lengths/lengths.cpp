@@ -111,6 +111,9 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         }
     };
     // A programme pair: the end-zone closure where it is chosen, else the whole programme.
+    // A pair alone among the jobs (a sweep of two options) gets every thread.
+    const int all_threads = s.threads <= 0 ? default_threads() : s.threads;
+    int inner_threads = 1;
     auto programme = [&](std::size_t k) {
         const DistanceModel& A = dist[requests[k].a];
         const DistanceModel& B = dist[requests[k].b];
@@ -118,12 +121,13 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         const auto kind = closure ? lengths_engine::DiagonalKind::closure
                           : s.method == LengthMethod::pairs_scalar ? lengths_engine::DiagonalKind::cells
                                                                    : lengths_engine::DiagonalKind::rows;
-        finish(k, lengths_engine::diagonal_duels(A, B, order, L, s.cancel, kind),
+        finish(k, lengths_engine::diagonal_duels(A, B, order, L, s.cancel, kind, inner_threads),
                closure ? LengthMethod::closure : LengthMethod::pairs);
     };
     // Job 0 is the series group when there is one (handed out first), then one
     // job per programme pair. A cancelled job ends quietly; the flag stops the rest.
     const std::size_t first_pp = series_list.empty() ? 0 : 1;
+    if (first_pp + pp_jobs.size() == 1) inner_threads = all_threads;
     parallel_for(
         first_pp + pp_jobs.size(), s.threads,
         [&](std::size_t j) {
@@ -140,6 +144,7 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         s.cancel);
     // Series pairs that did not close in time: the programme, exact whatever the cap.
     std::sort(fallback.begin(), fallback.end());
+    inner_threads = all_threads;  // one pair at a time from here
     for (std::size_t k : fallback) {
         if (s.cancel && s.cancel->load()) break;
         try {
