@@ -590,6 +590,11 @@ std::string policy_section_html(const DuelPolicyView& v) {
                             menu[c.best_fixed].name, 100.0 * static_cast<double>(c.worth),
                             game ? "the margin" : "P(A wins)", static_cast<double>(d.outcomes.bound))) +
          "</p>\n";
+    if (d.iterated)
+        h += "<p class=\"note\">" +
+             escape("Pieces can move backward on this board: states in loops of squares were solved by iteration, "
+                    "and the bounds are proven from the residual of the values found.") +
+             "</p>\n";
     h += "<figure>" + policy_figure(v).str() + "<figcaption>" +
          escape("A's optimal option for every pair of distances to the finish (B's across, A's upward); pale: "
                 "another option is as good, or the choice is mixed.") +
