@@ -81,7 +81,7 @@ struct Candidates {
 // The order of the states and when a block of several is settled: when no
 // value moves by more than `settle` times its size (at least 1) in a sweep,
 // when a sweep moves nothing more than the best sweep so far for 64 sweeps in
-// a row (rounding noise), or after `max_sweeps`.
+// a row (rounding noise), or after `max_sweeps` (fewer for huge blocks).
 struct SweepPlan {
     const SquareBlocks* a = nullptr;
     const SquareBlocks* b = nullptr;
@@ -103,6 +103,11 @@ struct SweepPlan {
                 const bool loop = several(ka, kb);
                 long double best = INFINITY;
                 int stale = 0;
+                // A huge block (a backward jump across most of the board) gets
+                // fewer sweeps: about 2e9 state visits at most; stopping early
+                // only widens the proven bound (or refuses when w cannot be proven).
+                const long long states = static_cast<long long>(a->size(ka)) * b->size(kb);
+                const long long cap = std::clamp(2'000'000'000LL / states, 64LL, std::max(64LL, max_sweeps));
                 for (long long s = 0;; ++s) {
                     long double moved = 0;
                     for (int ia = a->start[ka]; ia < a->start[ka + 1]; ++ia)
@@ -114,7 +119,7 @@ struct SweepPlan {
                         best = moved, stale = 0;
                     else
                         ++stale;
-                    if (moved <= settle || stale >= 64 || s + 1 >= max_sweeps) break;
+                    if (moved <= settle || stale >= 64 || s + 1 >= cap) break;
                 }
                 done(ka, kb);
             }
