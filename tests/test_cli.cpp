@@ -642,21 +642,27 @@ TEST_CASE("cli: search refuses bad input in one line and writes nothing half", "
     CHECK(t.json()["board"] == r.json()["best"][0]["board"]);
 }
 
+// Runs the "Certify its cycle" line a search printed, writing to `cert`; returns the line.
+std::string run_certify_line(const Run& search, const fs::path& cert) {
+    const std::string key = "Certify its cycle:     overshoot ";
+    const auto at = search.out.find(key);
+    REQUIRE(at != std::string::npos);
+    std::string line = search.out.substr(at + key.size());
+    line = line.substr(0, line.find('\n'));
+    line.replace(line.find("cycle.json"), 10, cert.string());
+    Run c = run_shell(quote(OVERSHOOT_BINARY) + " " + line, scratch() / "stderr.txt");
+    INFO(line << "\n" << c.err);
+    REQUIRE(c.status == 0);
+    return line;
+}
+
 TEST_CASE("cli: the certify line a search prints certifies its cycle", "[cli]") {
     // The chute 98 -> 95 makes 1d6 > 3d6 > 2d6 > 1d6 on 100 squares (docs/search.md).
     Run r = run({"search", "1d6", "2d6", "3d6", "--length", "100", "--cycle", "1d6 > 3d6 > 2d6 > 1d6", "--from", "98",
                  "--to", "93..96", "--keep", "1"});
     REQUIRE(r.status == 0);
-    const std::string key = "Certify its cycle:     overshoot ";
-    const auto at = r.out.find(key);
-    REQUIRE(at != std::string::npos);
-    std::string line = r.out.substr(at + key.size());
-    line = line.substr(0, line.find('\n'));
     const fs::path cert = scratch() / "search-cycle.json";
-    line.replace(line.find("cycle.json"), 10, cert.string());
-    Run c = run_shell(quote(OVERSHOOT_BINARY) + " " + line, scratch() / "stderr.txt");
-    INFO(line << "\n" << c.err);
-    REQUIRE(c.status == 0);
+    run_certify_line(r, cert);
     CHECK(run({"check", cert.string()}).status == 0);
 }
 
@@ -665,17 +671,8 @@ TEST_CASE("cli: head starts reach duel, tournament, certify and search, and noth
     Run r = run({"search", "1d6", "2d6", "3d6", "--length", "100", "--cycle", "1d6 > 3d6 > 2d6 > 1d6", "--from", "98",
                  "--to", "93..96", "--head-starts", "3", "--keep", "1", "--beam", "2", "--sample", "20"});
     REQUIRE(r.status == 0);
-    const std::string key = "Certify its cycle:     overshoot ";
-    const auto at = r.out.find(key);
-    REQUIRE(at != std::string::npos);
-    std::string line = r.out.substr(at + key.size());
-    line = line.substr(0, line.find('\n'));
-    CHECK(line.find("--head-start") != std::string::npos);
     const fs::path cert = scratch() / "search-head-start.json";
-    line.replace(line.find("cycle.json"), 10, cert.string());
-    Run c = run_shell(quote(OVERSHOOT_BINARY) + " " + line, scratch() / "stderr.txt");
-    INFO(line << "\n" << c.err);
-    REQUIRE(c.status == 0);
+    CHECK(run_certify_line(r, cert).find("--head-start") != std::string::npos);
     Run k = run({"check", cert.string()});
     CHECK(k.status == 0);
     CHECK(k.out.find("2d6 starts on 3") != std::string::npos);

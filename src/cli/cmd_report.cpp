@@ -11,6 +11,7 @@
 #include "cli/common.hpp"
 #include "cli/race_flags.hpp"
 #include "cli/registry.hpp"
+#include "cli/search_flags.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
 #include "policy/duel_policy.hpp"
@@ -179,13 +180,7 @@ void run(const ReportArgs& a) {
     SearchSpec search_spec;
     std::optional<SearchResult> found;
     if (a.search_target) {
-        search_spec.board = s.board;
-        search_spec.order = s.order;
-        search_spec.options = s.options;
-        search_spec.target = parse_search_target(*a.search_target);
-        if (a.search_cycle) search_spec.cycle = parse_cycle(*a.search_cycle, s.options);
-        if (search_spec.target == SearchTarget::cycle && !a.search_cycle)
-            throw InputError("--search-target cycle needs the cycle: --search-cycle 'A > B > C > A'");
+        search_spec = search_spec_of(s, a.search_target, a.search_cycle, "search-");
         search_spec.max_jumps = a.search_jumps;
         search_spec.head_start_max = a.search_head_starts;
         search_spec.threads = a.threads;

@@ -11,6 +11,7 @@
 #include "cli/common.hpp"
 #include "cli/arguments.hpp"
 #include "cli/registry.hpp"
+#include "cli/search_flags.hpp"
 #include "core/error.hpp"
 #include "core/io.hpp"
 #include "core/limits.hpp"
@@ -60,16 +61,8 @@ void run(const SearchArgs& a) {
     BoardFlags flags = a.board;
     flags.head_starts_allowed = true;
     Setup s = resolve_setup(flags, a.specs, 2, 64);
-    SearchSpec spec;
-    spec.board = s.board;
-    spec.order = s.order;
-    spec.options = s.options;
-    spec.target = a.target ? parse_search_target(*a.target) : (a.cycle ? SearchTarget::cycle : SearchTarget::no_winner);
-    if (a.cycle) spec.cycle = parse_cycle(*a.cycle, spec.options);
-    if (spec.target == SearchTarget::cycle && !a.cycle)
-        throw InputError("--target cycle needs the cycle: --cycle 'A > B > C > A'");
+    SearchSpec spec = search_spec_of(s, a.target, a.cycle, "");
     spec.max_jumps = a.jumps;
-    spec.starts = s.starts;
     spec.head_start_max = a.head_starts;
     if (a.from) spec.from_squares = parse_squares(*a.from, "--from");
     if (a.to) spec.to_squares = parse_squares(*a.to, "--to");
