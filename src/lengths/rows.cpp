@@ -189,6 +189,23 @@ inline void zone_terms(const DistanceModel& B, int b, const double* vw, const do
 }
 
 
+// One cell's closed-form self-loop: V = (X + sa Y) / (la + sa lb), with
+// 1 - sa sb written as la + sa lb (no cancellation for heavy options), then
+// G = sb V + Y. A cell where both stay for sure is a shared stuck state (0).
+inline void solve_cell(double xw, double xl, double yw, double yl, double sa, double la, double lb, double sb,
+                       double& vw, double& vl, double& gw, double& gl) {
+    const double den = la + sa * lb;
+    double w = 0, l = 0;
+    if (den > 0) {
+        w = (xw + sa * yw) / den;
+        l = (xl + sa * yl) / den;
+    }
+    vw = w;
+    vl = l;
+    gw = sb * w + yw;
+    gl = sb * l + yl;
+}
+
 }  // namespace
 
 RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_first, int L, double* dw, double* dl,
@@ -287,16 +304,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
         for (int b = 1; b <= zr; ++b) {
             double yw, yl;
             zone_terms(B, b, vw, vl, yw, yl);
-            const double den = la + sa * B.leave[b];
-            double w = 0, l = 0;
-            if (den > 0) {
-                w = (x_w[b] + sa * yw) / den;
-                l = (x_l[b] + sa * yl) / den;
-            }
-            vw[b] = w;
-            vl[b] = l;
-            rw[b] = B.stay[b] * w + yw;
-            rl[b] = B.stay[b] * l + yl;
+            solve_cell(x_w[b], x_l[b], yw, yl, sa, la, B.leave[b], B.stay[b], vw[b], vl[b], rw[b], rl[b]);
         }
         // phi: what the programme computes at a free cell, V = (X + 0 Y) / (la + 0 lb) = X / la.
         if (a <= 2 * za) {
@@ -421,17 +429,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
                 zone_terms(B, b, vw, vl, yw, yl);
             else
                 free_terms(B.moves.data(), B.move_p.data(), nb, b, vw, vl, yw, yl);
-            // 1 - sa sb written as la + sa lb: no cancellation for heavy options.
-            const double den = la + sa * B.leave[b];
-            double w = 0, l = 0;
-            if (den > 0) {
-                w = (xw[b] + sa * yw) / den;
-                l = (xl[b] + sa * yl) / den;
-            }
-            vw[b] = w;
-            vl[b] = l;
-            rw[b] = B.stay[b] * w + yw;
-            rl[b] = B.stay[b] * l + yl;
+            solve_cell(xw[b], xl[b], yw, yl, sa, la, B.leave[b], B.stay[b], vw[b], vl[b], rw[b], rl[b]);
         }
         dw[a] = vw[a];
         dl[a] = vl[a];
