@@ -691,4 +691,71 @@ TEST_CASE("cli: head starts reach duel, tournament, certify and search, and noth
     expect_one_line_error({"duel", "1d6", "2d6", "--length", "30", "--head-start", "3d6:4"}, "3d6");
     expect_one_line_error({"duel", "1d6", "2d6", "--length", "30", "--head-start", "1d6:30"}, "0..29");
     expect_one_line_error({"search", "1d6", "2d6", "--length", "30", "--head-starts", "30"}, "--head-starts");
+
+// ------------------------------------------------------------- wording (issue 17, part 2)
+
+TEST_CASE("cli: duel of one option in both seats tells them apart and calls the pair even", "[cli][wording]") {
+    Run r = run({"duel", "2d6", "2d6", "--length", "100"});
+    REQUIRE(r.status == 0);
+    CHECK_THAT(r.out, Catch::Contains("2d6 (A) wins") && Catch::Contains("2d6 (B) wins"));
+    CHECK_THAT(r.out, Catch::Contains("are even"));
+    CHECK_THAT(r.out, !Catch::Contains("undecided"));
+    // --exact proves the margin 0: even, in every format.
+    Run e = run({"duel", "[1,2,3]", "{1:1,2:1,3:1}", "--length", "20", "--exact"});
+    CHECK_THAT(e.out, Catch::Contains("are even: the exact margin is 0."));
+    CHECK_THAT(e.out, !Catch::Contains("undecided"));
+    CHECK(run({"duel", "[1,2,3]", "{1:1,2:1,3:1}", "--length", "20", "--exact", "--json"}).json()["verdict"] == "even");
+}
+
+TEST_CASE("cli: duel writes Markdown and LaTeX", "[cli][wording]") {
+    Run md = run({"duel", "1d6", "2d6", "--length", "100", "--format", "md"});
+    REQUIRE(md.status == 0);
+    CHECK_THAT(md.out, Catch::Contains("| outcome | probability |") && Catch::Contains("1d6 beats 2d6 by 3.1250 points"));
+    Run tex = run({"duel", "1d6", "2d6", "--length", "100", "--format", "latex"});
+    REQUIRE(tex.status == 0);
+    CHECK_THAT(tex.out, Catch::Contains("\\begin{tabular}") && Catch::Contains("points"));
+}
+
+TEST_CASE("cli: margins in points in text and figures; plurals; no negative zero", "[cli][wording]") {
+    Run t = run({"tournament", "1d6", "2d6", "3d6", "--length", "600"});
+    REQUIRE(t.status == 0);
+    CHECK_THAT(t.out, !Catch::Contains("-0.0000") && !Catch::Contains("e-16 points") && !Catch::Contains("e-17 points"));
+    CHECK_THAT(t.out, Catch::Contains("worst expected margin is 0.0000 points"));
+    const fs::path svg = scratch() / "digraph.svg";
+    REQUIRE(run({"report", "1d6", "2d6", "3d6", "--length", "600", "--figure", "digraph", "-o", svg.string()}).status == 0);
+    const std::string figure = slurp(svg);
+    CHECK_THAT(figure, Catch::Contains("by 28.87 points") && Catch::Contains("margin in points"));
+    CHECK(figure.find('%') == std::string::npos);
+    const fs::path html = scratch() / "report.html";
+    REQUIRE(run({"report", "1d6", "2d6", "3d6", "--length", "600", "-o", html.string()}).status == 0);
+    CHECK_THAT(slurp(html), Catch::Contains("1.3142 points"));  // the cycle's strength, not a percentage
+    Run one = run({"duel", "1d6", "2d6", "--length", "1"});
+    CHECK_THAT(one.out, Catch::Contains("board of 1 square,"));
+    Run sweep = run({"sweep", "1d6", "2d6", "--lengths", "114..115"});
+    CHECK_THAT(sweep.out, Catch::Contains("1 arc,") && Catch::Contains("0 cycles"));
+}
+
+TEST_CASE("cli: profile labels its median and mean; 1d6 finishes for certain", "[cli][wording]") {
+    Run r = run({"profile", "1d6", "2d6", "--length", "100"});
+    REQUIRE(r.status == 0);
+    CHECK_THAT(r.out, Catch::Contains("mean turns (finishers)") && Catch::Contains("median (all races)"));
+    CHECK_THAT(r.out, Catch::Contains("100% (certain)"));
+    auto j = run({"profile", "1d6", "--length", "100", "--json"}).json();
+    CHECK(j["options"][0]["p_finish"] == 1.0);
+    CHECK(j["options"][0]["p_stuck"] == 0.0);
+    const fs::path csv = scratch() / "dist.csv";
+    REQUIRE(run({"profile", "1d6", "--length", "20", "--distribution", csv.string()}).status == 0);
+    CHECK_THAT(slurp(csv), Catch::Contains("1d6,never,0,\n"));
+}
+
+TEST_CASE("cli: a control character in a scenario's option name is refused in one line", "[cli][wording]") {
+    const fs::path f = write_file("escape.toml", "[board]\nlength = 20\n[options]\n\"\\u001b[2Jevil\" = \"1d6\"\nfine = \"2d6\"\n");
+    expect_one_line_error({"duel", "--scenario", f.string()}, "holds a control character");
+    Run r = run({"duel", "--scenario", f.string()});
+    CHECK(r.err.find('\x1b') == std::string::npos);
+    // A control character typed on the command line never reaches the terminal raw either.
+    Run typed = run({"dule\x1b[2J", "1d6"});
+    CHECK(typed.status == 2);
+    CHECK(typed.err.find('\x1b') == std::string::npos);
+    CHECK_THAT(typed.err, Catch::Contains("\\x1b"));
 }

@@ -326,6 +326,23 @@ TEST_CASE("bad scenario: an empty option name", "[core]") {
                Catch::Contains("e.toml:2") && Catch::Contains("empty"));
 }
 
+TEST_CASE("bad scenario: a control character in an option name is refused at load, shown escaped", "[core]") {
+    // ESC [ 2 J clears a terminal's screen; U+009B is the one-byte form of ESC [.
+    const std::string msg =
+        input_error([] { parse_scenario("[options]\n\"\\u001b[2Jx\" = \"1d6\"\n", "c.toml"); });
+    CHECK_THAT(msg, Catch::Contains("c.toml:2") && Catch::Contains("control character") &&
+                        Catch::Contains("'\\x1b[2Jx'"));
+    CHECK(msg.find('\x1b') == std::string::npos);
+    CHECK_THAT(input_error([] { parse_scenario("[options]\n\"a\\u009b2J\" = \"1d6\"\n", "c.toml"); }),
+               Catch::Contains("'a\\xc2\\x9b2J'"));
+    CHECK_THAT(input_error([] { parse_scenario("[options]\n\"tab\\there\" = \"1d6\"\n", "c.toml"); }),
+               Catch::Contains("'tab\\x09here'"));
+    // A spec typed with a control character is refused the same way; printable names pass.
+    CHECK_THAT(input_error([] { parse_option("1d6\x07"); }), Catch::Contains("'1d6\\x07'"));
+    CHECK_NOTHROW(parse_option("1d6", "caf\xc3\xa9 \xe2\x86\x92 ok"));  // UTF-8 letters and arrows are text
+    CHECK(escape_controls("a\x1b[0mb\x7f") == "a\\x1b[0mb\\x7f");
+}
+
 TEST_CASE("bundled example scenarios load and make valid boards", "[core]") {
     for (const char* f : {"garden-path.toml", "long-road.toml", "bounce-yard.toml"}) {
         INFO(f);

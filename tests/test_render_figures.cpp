@@ -155,3 +155,84 @@ TEST_CASE("report: self-contained HTML, same bytes for the same input", "[render
         CHECK(h.find(sec) != std::string::npos);
     CHECK(h.find("id=\"race\"") == std::string::npos);  // not asked for
 }
+
+namespace {
+
+struct Rect {
+    double x0, y0, x1, y1;
+};
+
+double attribute(const std::string& tag, const std::string& name) {
+    const auto p = tag.find(" " + name + "=\"");
+    REQUIRE(p != std::string::npos);
+    return std::stod(tag.substr(p + name.size() + 3));
+}
+
+// The box of a <text> line as a reader sees it: 0.6 em per character (the
+// digits of a sans font are 0.56 em wide, common practice, no published
+// source), cap height above the baseline, and the halo around it.
+Rect text_rect(const std::string& line) {
+    const auto open = line.find('>'), close = line.find("</text>");
+    const std::string content = line.substr(open + 1, close - open - 1);
+    const double x = attribute(line, "x"), y = attribute(line, "y"), size = attribute(line, "font-size");
+    const double w = 0.6 * size * static_cast<double>(content.size());
+    const double left = line.find("text-anchor=\"middle\"") != std::string::npos ? x - w / 2
+                        : line.find("text-anchor=\"end\"") != std::string::npos ? x - w
+                                                                                  : x;
+    return {left - 1, y - 0.75 * size - 1, left + w + 1, y + 0.2 * size + 1};
+}
+
+bool meet(const Rect& a, const Rect& b) { return a.x0 < b.x1 && b.x0 < a.x1 && a.y0 < b.y1 && b.y0 < a.y1; }
+
+}  // namespace
+
+TEST_CASE("digraph figure: with 8 options no margin label overlaps another, a disc or a name", "[render]") {
+    // Eight options on 60 squares give 20 or more arcs, many of them crossing near the centre.
+    const std::vector<std::string> specs{"1d4", "1d6", "1d8", "2d4", "2d6", "3d6", "1d10", "2d8"};
+    std::vector<Option> opts;
+    for (const auto& s : specs) opts.push_back(parse_option(s));
+    Tournament t = analyse(race_matrix(make_board(60, Overshoot::stay, {}), Order::simultaneous, opts, {}, 1));
+    REQUIRE(t.arcs.size() >= 20);
+    const std::string svg = render::digraph_figure(t).str();
+    std::vector<std::string> lines;
+    for (std::size_t p = 0, q; p < svg.size(); p = q + 1) {
+        q = svg.find('\n', p);
+        if (q == std::string::npos) q = svg.size();
+        lines.push_back(svg.substr(p, q - p));
+    }
+    std::vector<Rect> labels, discs, names;
+    bool in_labels = false, in_nodes = false;
+    for (const auto& l : lines) {
+        if (l.find("<g class=\"margin-labels\">") != std::string::npos) in_labels = true;
+        else if (in_labels && l.find("</g>") != std::string::npos) in_labels = false, in_nodes = true;
+        else if (in_labels && l.find("<text") != std::string::npos) labels.push_back(text_rect(l));
+        else if (in_nodes && l.find("<circle") != std::string::npos) {
+            const double cx = attribute(l, "cx"), cy = attribute(l, "cy"), r = attribute(l, "r");
+            discs.push_back({cx - r, cy - r, cx + r, cy + r});
+        } else if (in_nodes && l.find("<text") != std::string::npos) names.push_back(text_rect(l));
+        else if (in_nodes && l.find("</g>") != std::string::npos) in_nodes = false;
+    }
+    CHECK(labels.size() == t.arcs.size());
+    CHECK(discs.size() == specs.size());
+    CHECK(names.size() == specs.size());
+    for (std::size_t i = 0; i < labels.size(); ++i) {
+        INFO("label " << i << " at " << labels[i].x0 << "," << labels[i].y0);
+        for (std::size_t j = i + 1; j < labels.size(); ++j) CHECK_FALSE(meet(labels[i], labels[j]));
+        for (const Rect& d : discs) CHECK_FALSE(meet(labels[i], d));
+        for (const Rect& n : names) CHECK_FALSE(meet(labels[i], n));
+        CHECK(labels[i].x1 < 500);  // the legend starts at x = 500
+    }
+}
+
+TEST_CASE("figures show margins in points, never a negative zero", "[render]") {
+    CHECK(render::figure_points(0.288707) == "28.87 points");
+    CHECK(render::figure_points(-0.0) == "0.00 points");
+    CHECK(render::figure_points(-1e-18) == ">-0.01 points");
+    CHECK(render::figure_points_number(1e-7) == "<0.01");
+    Tournament t = tournament_on(600);
+    const std::string s = render::digraph_figure(t).str();
+    CHECK(s.find("beats") != std::string::npos);
+    CHECK(s.find(" points") != std::string::npos);
+    // Percent signs belong to probabilities; the digraph shows none.
+    CHECK(s.find('%') == std::string::npos);
+}

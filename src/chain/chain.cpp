@@ -28,22 +28,33 @@ int destination(const Board& b, int s, int m) {
     return s;
 }
 
-void mark_stuck(Chain& c) {
-    // The finish reaches, along reversed arcs, exactly the squares that can
-    // still finish; one compressed graph and one breadth-first search.
+// Marks every square from which some square of `targets` (the finish is
+// square N) can be reached: one compressed graph of the reversed arcs, with a
+// source joined to every target, and one breadth-first search.
+std::vector<char> reaching(const Chain& c, const std::vector<int>& targets) {
     using Graph = boost::compressed_sparse_row_graph<boost::directedS>;
     const int n = c.length;
+    const std::size_t source = static_cast<std::size_t>(n) + 1;
     std::vector<std::pair<std::size_t, std::size_t>> reversed;
-    reversed.reserve(c.dest.size());
+    reversed.reserve(c.dest.size() + targets.size());
     for (int s = 0; s < n; ++s)
         for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
             if (c.dest[k] != s) reversed.emplace_back(static_cast<std::size_t>(c.dest[k]), static_cast<std::size_t>(s));
-    Graph g(boost::edges_are_unsorted_multi_pass, reversed.begin(), reversed.end(), static_cast<std::size_t>(n) + 1);
+    for (int t : targets) reversed.emplace_back(source, static_cast<std::size_t>(t));
+    Graph g(boost::edges_are_unsorted_multi_pass, reversed.begin(), reversed.end(), source + 1);
     std::vector<boost::default_color_type> color(boost::num_vertices(g), boost::white_color);
     auto cmap = boost::make_iterator_property_map(color.begin(), boost::get(boost::vertex_index, g));
-    boost::breadth_first_search(g, static_cast<std::size_t>(n), boost::color_map(cmap));
-    c.stuck.assign(static_cast<std::size_t>(n), 0);
-    for (int s = 0; s < n; ++s) c.stuck[s] = color[s] == boost::white_color ? 1 : 0;
+    boost::breadth_first_search(g, source, boost::color_map(cmap));
+    std::vector<char> out(static_cast<std::size_t>(n), 0);
+    for (int s = 0; s < n; ++s) out[s] = color[s] == boost::white_color ? 0 : 1;
+    return out;
+}
+
+void mark_stuck(Chain& c) {
+    // The finish reaches, along reversed arcs, exactly the squares that can still finish.
+    const std::vector<char> can_finish = reaching(c, {c.length});
+    c.stuck.assign(static_cast<std::size_t>(c.length), 0);
+    for (int s = 0; s < c.length; ++s) c.stuck[s] = can_finish[s] ? 0 : 1;
 }
 
 }  // namespace
@@ -126,6 +137,16 @@ Chain build_chain(const Board& board, const Option& option, int start) {
         for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
             if (c.dest[k] == n || c.stuck[c.dest[k]]) c.row_stays_live[s] = 0;
     return c;
+}
+
+std::vector<char> certain_to_finish(const Chain& c) {
+    std::vector<int> stuck;
+    for (int s = 0; s < c.length; ++s)
+        if (c.stuck[s]) stuck.push_back(s);
+    const std::vector<char> can_get_stuck = reaching(c, stuck);
+    std::vector<char> out(static_cast<std::size_t>(c.length), 0);
+    for (int s = 0; s < c.length; ++s) out[s] = can_get_stuck[s] ? 0 : 1;
+    return out;
 }
 
 std::vector<int> stuck_squares(const Chain& c) {

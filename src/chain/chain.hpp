@@ -51,4 +51,9 @@ std::uint64_t chain_memory_estimate(const Board& board, const Option& option);
 // Squares from which the finish is unreachable (Boost.Graph reverse search).
 std::vector<int> stuck_squares(const Chain& chain);
 
+// Per square, 1 when no stuck square can be reached from it: in a finite
+// chain every such piece finishes with probability exactly 1, a fact of the
+// arcs (integers), not of a rounded solve.
+std::vector<char> certain_to_finish(const Chain& chain);
+
 }  // namespace overshoot

@@ -56,6 +56,7 @@ Moments solve_moments(const Chain& c) {
         Eigen::SparseLU<Eigen::SparseMatrix<double>, Eigen::COLAMDOrdering<int>> lu;
         solve_with(lu);
     }
+    const std::vector<char> certain = certain_to_finish(c);
     m.residual = std::max({(a * h - r).lpNorm<Eigen::Infinity>(), (a * g - h).lpNorm<Eigen::Infinity>() /
                                                                        std::max(1.0, g.lpNorm<Eigen::Infinity>())});
     for (int s = 0; s < n; ++s) {
@@ -63,7 +64,8 @@ Moments solve_moments(const Chain& c) {
         // The clamp below only absorbs rounding; a NaN or a value far outside
         // [0, 1] is a failed solve, not a probability.
         selfcheck::check_probability(h[index[s]], selfcheck::solve_slack, "P(finish) from the absorbing-chain solve");
-        m.h[s] = std::clamp(h[index[s]], 0.0, 1.0);
+        // A square that can reach no stuck square finishes for sure: 1, not 1 - 2e-16.
+        m.h[s] = certain[s] ? 1.0 : std::clamp(h[index[s]], 0.0, 1.0);
         m.g[s] = g[index[s]];
         m.k[s] = k[index[s]];
     }

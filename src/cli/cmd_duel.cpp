@@ -8,7 +8,6 @@
 #include "cli/registry.hpp"
 #include "race/duel.hpp"
 #include "race/exact.hpp"
-#include "render/exact.hpp"
 #include "render/duel.hpp"
 
 namespace overshoot::cli {
@@ -32,15 +31,17 @@ void run(DuelArgs a) {
     DuelResult r = duel(ca, cb, s.order, ds);
     std::optional<ExactDuel> ex;
     if (a.exact) ex = exact_duel(ca, cb, s.order);  // refuses (exit 2) with the reason
-    if (a.out.chosen() == "json") {
-        auto j = render::duel_json(s.board, s.order, s.options[0], s.options[1], r, s.starts);
-        if (ex) j["exact"] = render::exact_duel_json(*ex);
-        deliver(a.out, j.dump(2));
-    } else {
-        std::string text = render::duel_text(s.board, s.order, s.options[0], s.options[1], r, s.starts);
-        if (ex) text += render::exact_duel_text(s.options[0], s.options[1], *ex);
-        deliver(a.out, text);
-    }
+    const ExactDuel* e = ex ? &*ex : nullptr;
+    const Option &oa = s.options[0], &ob = s.options[1];
+    const std::string format = a.out.chosen();
+    if (format == "json")
+        deliver(a.out, render::duel_json(s.board, s.order, oa, ob, r, s.starts, e).dump(2));
+    else if (format == "md")
+        deliver(a.out, render::duel_markdown(s.board, s.order, oa, ob, r, s.starts, e));
+    else if (format == "latex")
+        deliver(a.out, render::duel_latex(s.board, s.order, oa, ob, r, s.starts, e));
+    else
+        deliver(a.out, render::duel_text(s.board, s.order, oa, ob, r, s.starts, e));
 }
 
 const Registration reg(20, [](CLI::App& app) {
@@ -50,7 +51,7 @@ const Registration reg(20, [](CLI::App& app) {
     cmd->allow_extras();
     set_usage(*cmd, "A B", "the two options: specs such as 1d6, 2d6, [1,2,6] or {1:3,4:1} (docs/options.md), or option names from --scenario");
     add_board_flags(*cmd, args->board);
-    add_output_flags(*cmd, args->out, {"text", "json"});
+    add_output_flags(*cmd, args->out, {"text", "json", "md", "latex"});
     cmd->add_option("--method", args->method, "auto, pairs, zone, series or product (docs/method.md)")
         ->check(one_of({"auto", "pairs", "zone", "series", "product"}));
     cmd->add_flag("--exact", args->exact, "also give every probability as an exact fraction (docs/exact.md)");

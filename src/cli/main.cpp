@@ -17,6 +17,7 @@
 #include "cli/common.hpp"
 #include "cli/registry.hpp"
 #include "core/error.hpp"
+#include "core/option.hpp"
 #include "render/document.hpp"
 
 #ifdef OVERSHOOT_HAVE_MPI
@@ -129,14 +130,16 @@ int main(int argc, char** argv) {
     } catch (const CLI::CallForVersion& e) {
         status = app.exit(e);
     } catch (const CLI::ParseError& e) {
-        if (!cli::quiet_rank()) std::fprintf(stderr, "overshoot: error: %s (see --help)\n", cli::in_our_words(e).c_str());
+        if (!cli::quiet_rank())
+            std::fprintf(stderr, "overshoot: error: %s (see --help)\n", escape_controls(cli::in_our_words(e)).c_str());
         cli::settle_ranks();
         status = 2;
     } catch (const InternalError& e) {
-        std::fprintf(stderr, "overshoot: internal error: %s\n", e.what());
+        std::fprintf(stderr, "overshoot: internal error: %s\n", escape_controls(e.what()).c_str());
         status = 3;
     } catch (const InputError& e) {
-        if (!cli::quiet_rank()) std::fprintf(stderr, "overshoot: error: %s\n", e.what());
+        // Messages quote what was typed: a control character in it never reaches the terminal raw.
+        if (!cli::quiet_rank()) std::fprintf(stderr, "overshoot: error: %s\n", escape_controls(e.what()).c_str());
         cli::settle_ranks();
         status = 2;
     } catch (const std::bad_alloc&) {

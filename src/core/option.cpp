@@ -260,7 +260,30 @@ private:
 
 }  // namespace
 
+std::string escape_controls(const std::string& text) {
+    std::string shown;
+    for (std::size_t i = 0; i < text.size();) {
+        const auto c = static_cast<unsigned char>(text[i]);
+        // C0 controls and DEL; C1 controls U+0080..U+009F are 0xC2 then 0x80..0x9F in UTF-8.
+        const int n = c < 0x20 || c == 0x7f ? 1
+                      : c == 0xc2 && i + 1 < text.size() && (static_cast<unsigned char>(text[i + 1]) & 0xe0) == 0x80 ? 2
+                                                                                                                      : 0;
+        if (n == 0) shown += text[i++];
+        for (int k = 0; k < n; ++k) shown += fmt::format("\\x{:02x}", static_cast<unsigned char>(text[i++]));
+    }
+    return shown;
+}
+
+void require_printable(const std::string& text, const char* what) {
+    const std::string shown = escape_controls(text);
+    if (shown != text)
+        throw InputError(fmt::format("{} '{}' holds a control character; names and specs must be printable text", what,
+                                     shown));
+}
+
 Option parse_option(std::string_view spec, std::string name) {
+    require_printable(name, "option name");
+    require_printable(std::string(spec), "spec");
     Dist d = Parser(spec).parse();
     Option o;
     o.name = std::move(name);

@@ -36,4 +36,12 @@ std::optional<std::size_t> first_repeated_name(const std::vector<std::string>& n
 void require_distinct_names(const std::vector<std::string>& names);
 void require_distinct_names(const std::vector<Option>& options);
 
+// Refuses (InputError) a name or spec holding a control character (bytes
+// 0x00-0x1f and 0x7f, and the C1 controls U+0080-U+009F): printed on a
+// terminal it could move the cursor or clear the screen. `what` names it in
+// the message ("option name", "spec"), which shows the text escaped.
+void require_printable(const std::string& text, const char* what);
+// The text with every such control character written as \xNN.
+std::string escape_controls(const std::string& text);
+
 }  // namespace overshoot

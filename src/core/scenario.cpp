@@ -11,6 +11,7 @@
 
 #include "core/error.hpp"
 #include "core/limits.hpp"
+#include "core/option.hpp"
 
 namespace overshoot {
 
@@ -105,6 +106,11 @@ Scenario parse_scenario(std::string_view text, const std::string& source) {
             // An empty name would print as a blank column and match no word.
             if (key.empty())
                 throw InputError(fmt::format("{}: an option name in [options] must not be empty", where(source, v)));
+            try {
+                require_printable(key, "option name");
+            } catch (const InputError& e) {
+                throw InputError(fmt::format("{}: {}", where(source, v), e.what()));
+            }
             found.push_back({v.source().begin, NamedSpec{key, as_string(source, v, key)}});
         }
         // toml++ keeps keys sorted; the input order is the file order.

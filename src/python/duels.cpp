@@ -36,9 +36,8 @@ struct DuelOutcome {
     DuelResult result;
     std::optional<ExactDuel> exact;
     nlohmann::json json() const {
-        auto j = render::duel_json(setup.board, setup.order, setup.options[0], setup.options[1], result);
-        if (exact) j["exact"] = render::exact_duel_json(*exact);
-        return j;
+        return render::duel_json(setup.board, setup.order, setup.options[0], setup.options[1], result, setup.starts,
+                                 exact ? &*exact : nullptr);
     }
 };
 

@@ -5,6 +5,7 @@
 #include "core/fraction.hpp"
 #include "race/exact.hpp"
 #include "render/document.hpp"
+#include "render/format.hpp"
 
 namespace overshoot::render {
 
@@ -53,7 +54,8 @@ std::string verdict_words(const CertDuel& d) {
     switch (d.verdict) {
         case Verdict::a_beats_b: return d.a + " beats " + d.b;
         case Verdict::b_beats_a: return d.b + " beats " + d.a;
-        case Verdict::undecided: return "undecided";
+        // An exact margin of 0 is known: the two are even, not undecided.
+        case Verdict::undecided: return d.margin.exact && sgn(*d.margin.exact) == 0 ? "even (exact margin 0)" : "undecided";
     }
     return "";
 }
@@ -125,27 +127,27 @@ nlohmann::json certificate_json(const Certificate& c) {
 }
 
 std::string certificate_markdown(const Certificate& c) {
-    std::string out = fmt::format("# Certificate ({})\n\n**Claim.** {}.\n\n", to_string(c.claim.kind), c.statement);
+    std::string out = fmt::format("# Certificate ({})\n\n**Claim.** {}.\n\n", to_string(c.claim.kind), md_escape(c.statement));
     out += "**Options** (moves per turn, integer weights over the denominator):\n\n| option | spec | distribution |\n|---|---|---|\n";
-    for (const Option& o : c.options) out += fmt::format("| {} | `{}` | {} |\n", o.name, o.spec, distribution(o));
+    for (const Option& o : c.options) out += fmt::format("| {} | `{}` | {} |\n", md_escape(o.name), o.spec, distribution(o));
     out += "\n**Duels** (decimals to 6 places, exact values rounded; margin = P(A wins) - P(B wins)):\n\n";
     out += "| A | B | squares | P(A wins) | P(B wins) | P(tie) | P(neither) | margin | verdict | method |\n";
     out += "|---|---|---:|---:|---:|---:|---:|---:|---|---|\n";
     for (const CertDuel& d : c.duels)
-        out += fmt::format("| {} | {} | {} | {} | {} | {} | {} | {} | {} | {} |\n", d.a, d.b, d.length, d.p_a_wins.decimal,
+        out += fmt::format("| {} | {} | {} | {} | {} | {} | {} | {} | {} | {} |\n", md_escape(d.a), md_escape(d.b), d.length, d.p_a_wins.decimal,
                            d.p_b_wins.decimal, d.p_tie.decimal, d.p_neither.decimal, d.margin.decimal, verdict_words(d),
                            d.exact_method.empty() ? "proven interval (" + d.interval_method + ")" : d.exact_method);
     out += "\n**Exact fractions** (shortened; the full values follow):\n\n| A | B | squares | value | fraction | proven interval |\n|---|---|---:|---|---|---|\n";
     for (const CertDuel& d : c.duels)
         for (int i = 0; i < 5; ++i) {
             const CertValue& v = value_of(d, i);
-            out += fmt::format("| {} | {} | {} | {} | {} | [{:.17g}, {:.17g}] |\n", d.a, d.b, d.length, titles[i],
+            out += fmt::format("| {} | {} | {} | {} | {} | [{:.17g}, {:.17g}] |\n", md_escape(d.a), md_escape(d.b), d.length, titles[i],
                                v.exact ? short_fraction(*v.exact) : "(no exact value)", v.lo, v.hi);
         }
     out += "\n## Full fractions\n";
     for (const CertDuel& d : c.duels) {
         if (d.exact_method.empty()) continue;
-        out += fmt::format("\n### {} vs {} on {} squares\n", d.a, d.b, d.length);
+        out += fmt::format("\n### {} vs {} on {}\n", md_escape(d.a), md_escape(d.b), plural(d.length, "square"));
         for (int i = 0; i < 5; ++i) {
             const CertValue& v = value_of(d, i);
             out += fmt::format("\n{}:\n\n```\n{}```\n", titles[i], wrapped(fraction_string(*v.exact), 100));
@@ -156,14 +158,7 @@ std::string certificate_markdown(const Certificate& c) {
 }
 
 std::string certificate_latex(const Certificate& c) {
-    auto tex = [](const std::string& s) {
-        std::string o;
-        for (char ch : s) {
-            if (ch == '_' || ch == '&' || ch == '%' || ch == '#' || ch == '$' || ch == '{' || ch == '}') o += '\\';
-            o += ch;
-        }
-        return o;
-    };
+    const auto tex = latex_escape;
     std::string out = "% Certificate written by overshoot " + std::string(version) + "; needs \\usepackage{booktabs}\n";
     out += fmt::format("\\paragraph{{Claim.}} {}.\n\n", tex(c.statement));
     out += "\\begin{tabular}{llrrrrrrl}\n\\toprule\n";
@@ -183,7 +178,7 @@ std::string certificate_latex(const Certificate& c) {
     for (const CertDuel& d : c.duels) {
         if (d.exact_method.empty()) continue;
         for (int i = 0; i < 5; ++i) {
-            out += fmt::format("% {} vs {} on {} squares, {}:\n", d.a, d.b, d.length, titles[i]);
+            out += fmt::format("% {} vs {} on {}, {}:\n", d.a, d.b, plural(d.length, "square"), titles[i]);
             std::string w = wrapped(fraction_string(*value_of(d, i).exact), 100);
             std::size_t pos = 0;
             while (pos < w.size()) {

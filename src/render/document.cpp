@@ -4,6 +4,8 @@
 
 #include <cmath>
 
+#include "render/format.hpp"
+
 namespace overshoot::render {
 
 nlohmann::json document(const std::string& kind, int schema_version) {
@@ -28,12 +30,12 @@ std::string jumps_text(const std::vector<Jump>& jumps) {
 }
 
 std::string describe(const Board& b, Order order) {
-    return fmt::format("board of {} squares, overshoot {}, {} turns, {}", b.length, to_string(b.rule),
+    return fmt::format("board of {}, overshoot {}, {} turns, {}", plural(b.length, "square"), to_string(b.rule),
                        to_string(order), jumps_text(b.jumps));
 }
 
 std::string describe_board(const Board& b) {
-    return fmt::format("board of {} squares, overshoot {}, {}", b.length, to_string(b.rule), jumps_text(b.jumps));
+    return fmt::format("board of {}, overshoot {}, {}", plural(b.length, "square"), to_string(b.rule), jumps_text(b.jumps));
 }
 
 bool any_head_start(const std::vector<int>& starts) {

@@ -12,16 +12,16 @@ nlohmann::json exact_duel_json(const ExactDuel& e) {
             {"margin", fraction_string(e.margin())},   {"method", to_string(e.method)}};
 }
 
-std::string exact_duel_text(const Option& a, const Option& b, const ExactDuel& e) {
+std::string exact_duel_text(const std::string& a, const std::string& b, const ExactDuel& e) {
     std::string out = fmt::format("\nexact values ({}):\n", to_string(e.method));
     auto line = [&](const std::string& what, const mpq_class& q) {
-        out += fmt::format("  {:<22} {}  = {}\n", what, decimal_string(q, 12), fraction_string(q));
+        out += fmt::format("  {:<24} {}  = {}\n", what, decimal_string(q, 12), fraction_string(q));
     };
-    line(a.name + " wins", e.p_a_wins);
-    line(b.name + " wins", e.p_b_wins);
+    line(a + " wins", e.p_a_wins);
+    line(b + " wins", e.p_b_wins);
     line("tie (shared finish)", e.p_tie);
     line("neither finishes", e.p_neither);
-    line("margin", e.margin());
+    line("margin (A wins - B wins)", e.margin());
     return out;
 }
 

@@ -12,8 +12,9 @@ namespace overshoot::render {
 
 // {"p_a_wins": "num/den", "p_b_wins", "p_tie", "p_neither", "margin", "method"}
 nlohmann::json exact_duel_json(const ExactDuel& e);
-// A table of the reduced fractions and their decimals (12 places).
-std::string exact_duel_text(const Option& a, const Option& b, const ExactDuel& e);
+// A table of the reduced fractions and their decimals (12 places); a and b
+// are the names shown for the two seats.
+std::string exact_duel_text(const std::string& a, const std::string& b, const ExactDuel& e);
 
 // {"method", "wins": [[P(row beats column) as "num/den", null on the diagonal]],
 //  "margins": [[...]]} for a tournament's options, in input order.

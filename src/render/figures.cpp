@@ -6,6 +6,8 @@
 #include <cmath>
 #include <set>
 
+#include "render/format.hpp"
+
 namespace overshoot::render {
 
 namespace {
@@ -69,6 +71,37 @@ std::string figure_percent(double p) {
     return fmt::format("{:.2f}%", 100.0 * p);
 }
 
+std::string figure_points_number(double margin) {
+    const double p = 100.0 * margin;
+    if (p != 0 && std::fabs(p) < 0.005) return p > 0 ? "<0.01" : ">-0.01";
+    const std::string s = fmt::format("{:.2f}", p);
+    return s == "-0.00" ? "0.00" : s;
+}
+
+std::string figure_points(double margin) { return figure_points_number(margin) + " points"; }
+
+namespace {
+
+struct Box {
+    double x0, y0, x1, y1;
+    bool overlaps(const Box& o) const { return x0 < o.x1 && o.x0 < x1 && y0 < o.y1 && o.y0 < y1; }
+    double overlap_area(const Box& o) const {
+        const double w = std::min(x1, o.x1) - std::max(x0, o.x0), h = std::min(y1, o.y1) - std::max(y0, o.y0);
+        return w > 0 && h > 0 ? w * h : 0;
+    }
+};
+
+// The box a text of `size` takes around its anchor point (x, baseline y):
+// about 0.62 em per character (the digits of a sans font are 0.56 em), the
+// ascent and descent, and the 1.5-unit halo on every side.
+Box text_box(double x, double y, const std::string& s, double size, std::string_view anchor) {
+    const double w = 0.62 * size * static_cast<double>(s.size()) + 3;
+    const double left = anchor == "middle" ? x - w / 2 : anchor == "end" ? x - w : x;
+    return {left, y - 0.8 * size - 1.5, left + w, y + 0.25 * size + 1.5};
+}
+
+}  // namespace
+
 // ---------------------------------------------------------------- digraph
 
 svg::Element digraph_figure(const Tournament& t) {
@@ -99,8 +132,9 @@ svg::Element digraph_figure(const Tournament& t) {
     }
     const double H = std::max(plot + 30, 170.0 + 18.0 * static_cast<double>(cycle_lines.size()) + 150);
 
-    std::string desc = fmt::format("{} options on a circle; {} arcs, {} undecided pairs", n, t.arcs.size(),
-                                   t.undecided.size());
+    std::string desc = fmt::format("{} on a circle; {}, {}", plural(static_cast<long long>(n), "option"),
+                                   plural(static_cast<long long>(t.arcs.size()), "arc"),
+                                   plural(static_cast<long long>(t.undecided.size()), "undecided pair"));
     svg::Element root = svg::document(W, H, "Dominance digraph", desc);
     root.add(background(W, H));
     root.add(svg::text(20, 28, "Dominance digraph", 16).set("font-weight", "bold").set("fill", ink));
@@ -111,8 +145,24 @@ svg::Element digraph_figure(const Tournament& t) {
     for (auto [i, j] : t.undecided) undecided.add(svg::line(x[i], y[i], x[j], y[j], muted, 1.4));
     root.add(std::move(undecided));
 
+    // Where each option's name goes (outside its disc, away from the centre).
+    const double name_size = n > 24 ? 10 : 13;
+    std::vector<double> name_x(n), name_y(n);
+    std::vector<std::string> name_anchor(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        const double c = std::cos(ang[i]), s = std::sin(ang[i]);
+        name_anchor[i] = n == 1 ? "middle" : c > 0.3 ? "start" : c < -0.3 ? "end" : "middle";
+        name_x[i] = n == 1 ? cx : x[i] + c * (node_r + 10);
+        name_y[i] = n == 1 ? cy + node_r + 16 : y[i] + s * (node_r + 12) + 4 + (std::fabs(c) <= 0.3 ? s * 6 : 0);
+    }
+    struct Label {
+        double sx, sy, bx, by, ux, uy;
+        std::string text;
+    };
+    std::vector<Label> to_label;
     svg::Element arcs("g");
     svg::Element margin_labels("g");
+    margin_labels.set("class", "margin-labels");
     // Cycle arcs last, so they sit on top.
     std::vector<const Arc*> order;
     for (const Arc& a : t.arcs) if (!in_cycle.count({a.from, a.to})) order.push_back(&a);
@@ -130,26 +180,50 @@ svg::Element digraph_figure(const Tournament& t) {
         const double tx = x[a->to] - ux * (node_r + 2), ty = y[a->to] - uy * (node_r + 2);
         const double bx = tx - ux * alen, by = ty - uy * alen;
         svg::Element g("g");
-        g.add(tooltip(t.name(a->from) + " beats " + t.name(a->to) + " by " + figure_percent(a->margin)));
+        g.add(tooltip(t.name(a->from) + " beats " + t.name(a->to) + " by " + figure_points(a->margin)));
         g.add(svg::line(sx, sy, bx, by, colour, w).set("stroke-linecap", "round"));
         g.add(svg::polygon({{tx, ty}, {bx - uy * hw, by + ux * hw}, {bx + uy * hw, by - ux * hw}}, colour));
         arcs.add(std::move(g));
-        if (labels) {
-            const double mx = (sx + bx) / 2 - uy * 11, my = (sy + by) / 2 + ux * 11 + 4;
-            margin_labels.add(halo_text(mx, my, figure_percent(a->margin), 10, "middle"));
-        }
+        if (labels) to_label.push_back({sx, sy, bx, by, ux, uy, figure_points_number(a->margin)});
     }
     root.add(std::move(arcs));
+    // Margin labels along their arcs, each where it meets no label placed
+    // before it, no option's disc or name and not the legend: the middle of the
+    // arc first, then further along it and further to either side.
+    std::vector<Box> taken;
+    for (std::size_t i = 0; i < n; ++i) {
+        taken.push_back({x[i] - node_r - 2, y[i] - node_r - 2, x[i] + node_r + 2, y[i] + node_r + 2});
+        if (n <= 40) taken.push_back(text_box(name_x[i], name_y[i], t.name(i), name_size, name_anchor[i]));
+    }
+    const Box area{4, 40, 496, H - 4};
+    for (const auto& l : to_label) {
+        double best_x = 0, best_y = 0, best_cost = -1;
+        for (double f : {0.5, 0.4, 0.6, 0.32, 0.68, 0.25, 0.75, 0.18, 0.82}) {
+            for (double side : {11.0, -11.0, 0.0, 21.0, -21.0}) {
+                const double mx = l.sx + (l.bx - l.sx) * f - l.uy * side;
+                const double my = l.sy + (l.by - l.sy) * f + l.ux * side + 4;
+                const Box b = text_box(mx, my, l.text, 10, "middle");
+                double cost = 0;
+                for (const Box& o : taken) cost += b.overlap_area(o);
+                if (b.x0 < area.x0 || b.x1 > area.x1 || b.y0 < area.y0 || b.y1 > area.y1) cost += 1e6;
+                if (best_cost < 0 || cost < best_cost) {
+                    best_cost = cost;
+                    best_x = mx;
+                    best_y = my;
+                }
+            }
+            if (best_cost == 0) break;
+        }
+        taken.push_back(text_box(best_x, best_y, l.text, 10, "middle"));
+        margin_labels.add(halo_text(best_x, best_y, l.text, 10, "middle"));
+    }
     root.add(std::move(margin_labels));
 
     svg::Element nodes("g");
     for (std::size_t i = 0; i < n; ++i) {
         nodes.add(svg::circle(x[i], y[i], node_r, palette()[i % palette().size()]).set("stroke", ink).set("stroke-width", 1.5));
-        const double c = std::cos(ang[i]), s = std::sin(ang[i]);
-        const std::string anchor = n == 1 ? "middle" : c > 0.3 ? "start" : c < -0.3 ? "end" : "middle";
-        const double lx = n == 1 ? cx : x[i] + c * (node_r + 10);
-        const double ly = n == 1 ? cy + node_r + 16 : y[i] + s * (node_r + 12) + 4 + (std::fabs(c) <= 0.3 ? s * 6 : 0);
-        if (n <= 40 || i % ((n + 39) / 40) == 0) nodes.add(halo_text(lx, ly, t.name(i), n > 24 ? 10 : 13, anchor));
+        if (n <= 40 || i % ((n + 39) / 40) == 0)
+            nodes.add(halo_text(name_x[i], name_y[i], t.name(i), name_size, name_anchor[i]));
     }
     root.add(std::move(nodes));
 
@@ -167,12 +241,12 @@ svg::Element digraph_figure(const Tournament& t) {
     arrow_sample(ly - 4, palette()[0], 2);
     legend.add(svg::text(lx + 56, ly, "A \u2192 B: A beats B", 11).set("fill", ink));
     ly += 16;
-    legend.add(svg::text(lx + 56, ly, "(margin above its error bound)", 10).set("fill", muted));
+    legend.add(svg::text(lx + 56, ly, labels ? "label: margin in points" : "(margin above its error bound)", 10).set("fill", muted));
     ly += 22;
     arrow_sample(ly - 4, palette()[0], 6);
     legend.add(svg::text(lx + 56, ly, "thicker: larger margin", 11).set("fill", ink));
     ly += 16;
-    legend.add(svg::text(lx + 56, ly, "thickest " + figure_percent(t.arcs.empty() ? 0 : mmax), 10).set("fill", muted));
+    legend.add(svg::text(lx + 56, ly, "thickest " + figure_points(t.arcs.empty() ? 0 : mmax), 10).set("fill", muted));
     ly += 22;
     legend.add(svg::line(lx + 12, ly - 4, lx + 48, ly - 4, muted, 1.4).set("stroke-dasharray", "6 4"));
     legend.add(svg::text(lx + 56, ly, "undecided pair", 11).set("fill", ink));
@@ -183,7 +257,7 @@ svg::Element digraph_figure(const Tournament& t) {
     if (t.strongest_cycle) {
         legend.add(svg::text(lx + 56, ly, "strongest cycle, strength", 11).set("fill", ink));
         ly += 16;
-        legend.add(svg::text(lx + 56, ly, figure_percent(t.strongest_cycle->strength), 10).set("fill", muted));
+        legend.add(svg::text(lx + 56, ly, figure_points(t.strongest_cycle->strength), 10).set("fill", muted));
         for (const auto& l : cycle_lines) {
             ly += 16;
             legend.add(svg::text(lx + 12, ly, l, 11).set("fill", highlight));

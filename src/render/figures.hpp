@@ -34,5 +34,9 @@ double nice_step(double range, int count);
 
 // Shown percentages in figures: two decimals ("12.34%"), "<0.01%" for tiny positive values.
 std::string figure_percent(double p);
+// Shown margins in figures, in percentage points: "12.34 points" ("<0.01 points"
+// for tiny positive ones, never "-0.00"); the number alone for arc labels.
+std::string figure_points(double margin);
+std::string figure_points_number(double margin);
 
 }  // namespace overshoot::render

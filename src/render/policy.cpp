@@ -46,11 +46,8 @@ nlohmann::json menu_json(const std::vector<Option>& opts) {
     return a;
 }
 
-// A signed percentage that never shows "-0.0000%".
-std::string signed_percent(long double x) {
-    const double p = 100.0 * static_cast<double>(x);
-    return fmt::format("{:+.4f}%", std::fabs(p) < 5e-5 ? 0.0 : p);
-}
+// A margin in signed points that never shows "-0.0000".
+std::string margin_points(long double x) { return signed_points(static_cast<double>(x)); }
 
 std::string rounds_text(long double x) { return std::isfinite(x) ? fmt::format("{:.4f}", static_cast<double>(x)) : "-"; }
 
@@ -247,12 +244,12 @@ std::string duel_policy_text(const DuelPolicyView& v) {
     auto row = [&](std::string who, const PolicyOutcomes& o) {
         rows.push_back({std::move(who), percent(static_cast<double>(o.p_a_wins)), percent(static_cast<double>(o.p_b_wins)),
                         percent(static_cast<double>(o.p_tie)), percent(static_cast<double>(o.p_neither)),
-                        signed_percent(o.p_a_wins - o.p_b_wins)});
+                        margin_points(o.p_a_wins - o.p_b_wins)});
     };
     row(game ? "A adaptive" : "A adaptive", d.outcomes);
     for (std::size_t i = 0; i < menu.size(); ++i) row("A always " + menu[i].name, c.fixed[i].outcomes);
     out += table({game ? "B adaptive" : "against " + against[0].name, "P(A wins)", "P(B wins)", "P(tie)",
-                  "P(neither)", "margin"},
+                  "P(neither)", "margin (points)"},
                  rows);
     out += fmt::format("error bound: each probability within {:.1e}\n", static_cast<double>(d.outcomes.bound));
     if (d.iterated && game && v.order == Order::simultaneous)
@@ -265,17 +262,17 @@ std::string duel_policy_text(const DuelPolicyView& v) {
                            d.sweeps, game ? "margin" : "P(A wins)", rounded_down(d.value_low),
                            rounded_up(d.value_high));
     if (game && v.order == Order::simultaneous)
-        out += fmt::format("value of the game (margin): {:+.4e}, proven within [{:+.4e}, {:+.4e}]; {} of {} states "
-                           "need a mixed choice\n",
-                           static_cast<double>(d.value), static_cast<double>(d.value_low),
-                           static_cast<double>(d.value_high), d.mixed_states,
+        out += fmt::format("value of the game (margin): {:+.4e} points, proven within [{:+.4e}, {:+.4e}]; {} of {} "
+                           "states need a mixed choice\n",
+                           100 * static_cast<double>(d.value), 100 * static_cast<double>(d.value_low),
+                           100 * static_cast<double>(d.value_high), d.mixed_states,
                            static_cast<std::size_t>(d.length) * d.length);
     const FixedPolicy& best = c.fixed[c.best_fixed];
-    out += fmt::format("best fixed option: {} ({} {}); adaptivity is worth {:+.4f} points of {}\n",
+    out += fmt::format("best fixed option: {} ({} {}); adaptivity is worth {} points of {}\n",
                        menu[c.best_fixed].name, game ? "margin" : "P(A wins)",
-                       game ? signed_percent(best.value)
+                       game ? margin_points(best.value) + " points"
                             : percent(static_cast<double>(best.value)),
-                       100.0 * static_cast<double>(c.worth), game ? "margin" : "P(A wins)");
+                       margin_points(c.worth), game ? "margin" : "P(A wins)");
     if (d.exact) {
         out += "\nexact (fractions):\n";
         out += fmt::format("  {:<26} {}  = {}\n", "P(A wins), adaptive", decimal_string(d.exact_outcomes.p_a_wins, 12),
@@ -585,9 +582,9 @@ std::string policy_section_html(const DuelPolicyView& v) {
     for (std::size_t i = 0; i < menu.size(); ++i) row("always " + menu[i].name, c.fixed[i].outcomes);
     h += "</tbody></table>\n";
     h += "<p class=\"note\">" +
-         escape(fmt::format("Best fixed option: {}. Adaptivity is worth {:+.4f} points of {}. Each probability is "
+         escape(fmt::format("Best fixed option: {}. Adaptivity is worth {} points of {}. Each probability is "
                             "within {:.1e}.",
-                            menu[c.best_fixed].name, 100.0 * static_cast<double>(c.worth),
+                            menu[c.best_fixed].name, margin_points(c.worth),
                             game ? "the margin" : "P(A wins)", static_cast<double>(d.outcomes.bound))) +
          "</p>\n";
     if (d.iterated)

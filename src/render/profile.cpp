@@ -12,7 +12,10 @@ namespace overshoot::render {
 std::string profile_text(const Board& board, Order order, const std::vector<ProfileEntry>& entries) {
     (void)order;  // profiles do not depend on the turn order
     std::string out = describe_board(board) + "\n\n";
-    std::vector<std::string> header{"option", "P(finish)", "mean turns", "sd", "median"};
+    // The mean and sd count only finishing races; the median and quantiles count
+    // every race, one that never finishes as infinitely long (docs/guide.md).
+    std::vector<std::string> header{"option", "P(finish)", "mean turns (finishers)", "sd (finishers)",
+                                    "median (all races)"};
     bool any_quantile = false;
     for (const auto& e : entries)
         for (const auto& q : e.profile.quantiles)
@@ -24,7 +27,7 @@ std::string profile_text(const Board& board, Order order, const std::vector<Prof
     std::vector<std::vector<std::string>> rows;
     for (const auto& e : entries) {
         const Profile& p = e.profile;
-        std::vector<std::string> r{e.option->name, percent(p.p_finish),
+        std::vector<std::string> r{e.option->name, finish_chance(p.p_finish),
                                    std::isfinite(p.mean_turns_given_finish) ? fmt::format("{:.3f}", p.mean_turns_given_finish) : "-",
                                    std::isfinite(p.sd_turns_given_finish) ? fmt::format("{:.3f}", p.sd_turns_given_finish) : "-"};
         std::string median = "-";
@@ -48,7 +51,12 @@ std::string profile_text(const Board& board, Order order, const std::vector<Prof
         rows.push_back(std::move(r));
     }
     out += table(header, rows);
-    out += "\nmean and sd are over the races that finish; median is null (-) when P(finish) < 50%.\n";
+    out += "\nThe mean and sd count only the races that finish. The median and quantiles count every race, one that\n"
+           "never finishes as infinitely long: they are - when P(finish) is below the quantile.\n";
+    bool any_certain = false;
+    for (const auto& e : entries) any_certain = any_certain || e.profile.p_finish == 1;
+    if (any_certain)
+        out += "100% (certain): no stuck square can be reached, so the piece finishes with probability exactly 1.\n";
     return out;
 }
 

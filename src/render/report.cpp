@@ -71,7 +71,7 @@ void rules_section(std::string& h, const ReportInput& in) {
                             : b.rule == Overshoot::bounce ? "a move past the finish walks the excess back from it"
                                                           : "any move reaching or passing the finish finishes";
     h += "<section id=\"rules\"><h2>Rules</h2><dl class=\"rules\">\n";
-    h += fmt::format("<dt>Board</dt><dd>{} squares to walk; every piece starts on square 0</dd>\n", b.length);
+    h += fmt::format("<dt>Board</dt><dd>{} to walk; every piece starts on square 0</dd>\n", plural(b.length, "square"));
     h += fmt::format("<dt>Overshoot</dt><dd><code>{}</code>: {}</dd>\n", to_string(b.rule), rule_text);
     h += fmt::format("<dt>Jumps</dt><dd>{}</dd>\n", escape(jumps));
     h += fmt::format("<dt>Turn order</dt><dd><code>{}</code></dd>\n", to_string(in.order));
@@ -83,13 +83,15 @@ void rules_section(std::string& h, const ReportInput& in) {
     h += "</dd>\n";
     h += fmt::format("<dt>Source</dt><dd>{}</dd>\n", escape(in.source));
     h += "</dl>\n<p class=\"note\">A beats B when P(A wins) &minus; P(B wins), the margin, exceeds its proven error "
-         "bound; a pair whose margin is within its bound is undecided.</p></section>\n";
+         "bound; a pair whose margin is within its bound is undecided. Margins are in percentage points (one point "
+         "is a difference of 0.01 in probability).</p></section>\n";
 }
 
 void profiles_section(std::string& h, const ReportInput& in) {
     const auto& opts = *in.options;
     h += "<section id=\"profiles\"><h2>Profiles</h2>\n<table><thead><tr><th>option</th><th>P(finish)</th>"
-         "<th>mean turns</th><th>sd</th><th>median</th><th>stuck squares</th></tr></thead><tbody>\n";
+         "<th>mean turns (finishers)</th><th>sd (finishers)</th><th>median (all races)</th><th>stuck squares</th></tr>"
+         "</thead><tbody>\n";
     for (std::size_t i = 0; i < opts.size() && i < in.profiles.size(); ++i) {
         const Profile& p = in.profiles[i];
         std::string median = "-";
@@ -100,11 +102,12 @@ void profiles_section(std::string& h, const ReportInput& in) {
             stuck += (k ? ", " : "") + fmt::format("{}", p.stuck_squares[k]);
         if (p.stuck_squares.size() > 12) stuck += fmt::format(", ... ({} in all)", p.stuck_squares.size());
         if (stuck.empty()) stuck = "none";
-        h += "<tr>" + cell(opts[i].name) + cell(percent(p.p_finish)) + cell(turns(p.mean_turns_given_finish)) +
+        h += "<tr>" + cell(opts[i].name) + cell(finish_chance(p.p_finish)) + cell(turns(p.mean_turns_given_finish)) +
              cell(turns(p.sd_turns_given_finish)) + cell(median) + cell(stuck) + "</tr>\n";
     }
-    h += "</tbody></table><p class=\"note\">Means and deviations are given finishing; a median is shown when "
-         "the piece finishes with chance at least one half.</p>\n";
+    h += "</tbody></table><p class=\"note\">Means and deviations count only the races that finish; the median "
+         "counts every race, one that never finishes as infinitely long, so it is shown when the piece finishes with "
+         "chance at least one half. 100% (certain): no stuck square can be reached.</p>\n";
     if (!in.distributions.empty()) {
         std::vector<std::string> names;
         for (const auto& o : opts) names.push_back(o.name);
@@ -152,7 +155,7 @@ void tournament_sections(std::string& h, const ReportInput& in) {
              "</tr></thead><tbody>\n";
         for (std::size_t k = 0; k < t.cycles.size() && k < 20; ++k)
             h += "<tr>" + cell(names_of(*in.options, t.cycles[k].options, " \u2192 ")) +
-                 cell(percent(t.cycles[k].strength)) + "</tr>\n";
+                 cell(points(t.cycles[k].strength)) + "</tr>\n";
         h += "</tbody></table>\n";
         if (t.cycles.size() > 20)
             h += fmt::format("<p class=\"note\">{} more cycles in <code>overshoot tournament --json</code>.</p>\n",
@@ -163,11 +166,11 @@ void tournament_sections(std::string& h, const ReportInput& in) {
 
     h += "<section id=\"counters\"><h2>Counters</h2>\n<p class=\"note\">For an option chosen first, the option "
          "that beats it by the largest margin.</p>\n<table><thead><tr><th>chosen first</th><th>counter</th>"
-         "<th>margin</th></tr></thead><tbody>\n";
+         "<th>margin (points)</th></tr></thead><tbody>\n";
     for (std::size_t i = 0; i < n; ++i) {
         const Counter& c = t.counters[i];
         h += "<tr>" + cell(t.name(i)) + cell(c.counter ? t.name(*c.counter) : "none (nothing beats it)") +
-             cell(c.counter ? percent(c.margin) : "-") + "</tr>\n";
+             cell(c.counter ? points(c.margin) : "-") + "</tr>\n";
     }
     h += "</tbody></table></section>\n";
 
@@ -278,7 +281,7 @@ void race_sections(std::string& h, const ReportInput& in) {
 std::string report_html(const ReportInput& in) {
     std::string names;
     for (std::size_t i = 0; i < in.options->size(); ++i) names += (i ? ", " : "") + (*in.options)[i].name;
-    const std::string title = fmt::format("overshoot report: {} on {} squares", names, in.board->length);
+    const std::string title = fmt::format("overshoot report: {} on {}", names, plural(in.board->length, "square"));
     std::string h;
     h += "<!DOCTYPE html>\n<html lang=\"en\">\n<head>\n<meta charset=\"utf-8\">\n";
     h += "<meta name=\"viewport\" content=\"width=device-width, initial-scale=1\">\n";

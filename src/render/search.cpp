@@ -8,6 +8,7 @@
 
 #include "render/figures.hpp"
 #include "render/document.hpp"
+#include "render/format.hpp"
 #include "render/tournament.hpp"
 
 namespace overshoot::render {
@@ -182,7 +183,7 @@ std::string scenario_toml(const Board& board, Order order, const std::vector<Opt
 
 std::string search_text(const SearchResult& r, const SearchSpec& spec) {
     std::string out = fmt::format("Board search. Target: {}.\n", target_sentence(spec));
-    out += fmt::format("Board changed: {} squares, overshoot {}, {} turns, jumps {}", spec.board.length,
+    out += fmt::format("Board changed: {}, overshoot {}, {} turns, jumps {}", plural(spec.board.length, "square"),
                        to_string(spec.board.rule), to_string(spec.order), jump_list(spec.board.jumps));
     if (any_head_start(spec.starts)) out += "; " + head_starts_text(names_of(spec.options), spec.starts);
     if (spec.head_start_max > 0) out += fmt::format("; head starts on squares 0..{} searched", spec.head_start_max);
@@ -213,7 +214,7 @@ std::string search_text(const SearchResult& r, const SearchSpec& spec) {
                            spec.to_squares.empty() ? std::string("any") : fmt::format("{}", fmt::join(spec.to_squares, ",")));
     out += "Every board below was raced again by the duel engine (automatic method, proven bounds).\n\n";
     if (r.base) {
-        out += fmt::format("Unchanged board ({} squares): score {}{}.\n  {}\n\n", r.base->board.length, points(r.base->score),
+        out += fmt::format("Unchanged board ({}): score {}{}.\n  {}\n\n", plural(r.base->board.length, "square"), points(r.base->score),
                            verdict(*r.base, spec).empty() ? "" : "; the target " + verdict(*r.base, spec),
                            arcs_line(*r.base, spec));
     }
@@ -323,7 +324,7 @@ svg::Element board_figure(const Board& board, const std::vector<Jump>& added, co
         const int x = row % 2 == 0 ? col : per_row - 1 - col;
         return std::pair<double, double>(margin + (x + 0.5) * cell, margin + (rows - 1 - row + 0.5) * cell);
     };
-    std::string desc = fmt::format("A board of {} squares; jumps {}.", board.length, jump_list(board.jumps));
+    std::string desc = fmt::format("A board of {}; jumps {}.", plural(board.length, "square"), jump_list(board.jumps));
     svg::Element root = svg::document(w, h, title, desc);
     root.add(svg::rect(0, 0, w, h, paper));
     for (int s = 0; s <= board.length; ++s) {

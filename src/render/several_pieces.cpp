@@ -16,7 +16,7 @@ namespace {
 double d(long double x) { return static_cast<double>(x); }
 
 std::string board_line(const Board& b, RaceOrder order) {
-    return fmt::format("board of {} squares, overshoot {}, {} order, {}", b.length, to_string(b.rule), to_string(order),
+    return fmt::format("board of {}, overshoot {}, {} order, {}", plural(b.length, "square"), to_string(b.rule), to_string(order),
                        jumps_text(b.jumps));
 }
 

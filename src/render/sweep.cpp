@@ -113,8 +113,9 @@ std::string sweep_text(const SweepResult& r) {
                                                              t += (t.empty() ? "" : ", ") + r.options[i].name;
                                                          return t;
                                                      }() + "}";
-                out += fmt::format("    {}: {}, {} arcs, {} undecided, {} cycles\n", s.length, w, s.arcs.size(),
-                                   s.undecided.size(), s.cycles.size());
+                out += fmt::format("    {}: {}, {}, {} undecided, {}\n", s.length, w,
+                                   plural(static_cast<long long>(s.arcs.size()), "arc"), s.undecided.size(),
+                                   plural(static_cast<long long>(s.cycles.size()), "cycle"));
             }
         }
     }

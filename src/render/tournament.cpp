@@ -26,7 +26,7 @@ std::string heading(const Tournament& t, const TournamentSource& src) {
     } else
         out = fmt::format("win matrix from {}, error bound {} on every margin", src.matrix_file,
                           src.tolerance == 0 ? std::string("0") : fmt::format("{:g}", src.tolerance));
-    out += fmt::format("\n{} option{}", t.size(), t.size() == 1 ? "" : "s");
+    out += "\n" + plural(static_cast<long long>(t.size()), "option");
     return out;
 }
 
@@ -86,7 +86,7 @@ std::string matrix_table(const Tournament& t, const std::vector<double>& m) {
         for (std::size_t j = 0; j < t.size(); ++j) r.push_back(cell_percent(t, m, i, j));
         rows.push_back(std::move(r));
     }
-    return table(header, rows);
+    return table(header, rows, max_text_width);
 }
 
 std::string score(double s) { return s == std::floor(s) ? fmt::format("{}", s) : fmt::format("{:.1f}", s); }
@@ -112,32 +112,6 @@ nlohmann::json matrix_json(const Tournament& t, const std::vector<double>& m, bo
     return rows;
 }
 
-std::string latex_escape(const std::string& s) {
-    std::string out;
-    for (char c : s) {
-        switch (c) {
-            case '&': case '%': case '$': case '#': case '_': case '{': case '}':
-                out += '\\';
-                out += c;
-                break;
-            case '~': out += "\\textasciitilde{}"; break;
-            case '^': out += "\\textasciicircum{}"; break;
-            case '\\': out += "\\textbackslash{}"; break;
-            default: out += c;
-        }
-    }
-    return out;
-}
-
-std::string md_escape(const std::string& s) {
-    std::string out;
-    for (char c : s) {
-        if (c == '|' || c == '*' || c == '_' || c == '[' || c == ']' || c == '\\' || c == '`') out += '\\';
-        out += c;
-    }
-    return out;
-}
-
 std::string dot_quote(const std::string& s) {
     std::string out = "\"";
     for (char c : s) {
@@ -148,12 +122,6 @@ std::string dot_quote(const std::string& s) {
 }
 
 }  // namespace
-
-std::string points(double margin) {
-    double p = 100 * margin;
-    if (p != 0 && std::fabs(p) < 0.001) return fmt::format("{:.3g} points", p);
-    return fmt::format("{:.4f} points", p);
-}
 
 std::string tournament_text(const Tournament& t, const TournamentSource& src) {
     const std::size_t n = t.size();
@@ -180,7 +148,7 @@ std::string tournament_text(const Tournament& t, const TournamentSource& src) {
     } else {
         out += "Undecided pairs (margin within the error bound, counted as half a point each):\n";
         for (auto [i, j] : t.undecided)
-            out += fmt::format("  {} and {}: margin {:.3g}, bound {:.2g}\n", t.name(i), t.name(j), t.margin[i * n + j],
+            out += fmt::format("  {} and {}: margin {}, bound {:.2g}\n", t.name(i), t.name(j), points(t.margin[i * n + j]),
                                std::max(t.matrix.bound[i * n + j], t.matrix.bound[j * n + i]));
     }
 
@@ -243,13 +211,13 @@ std::string tournament_text(const Tournament& t, const TournamentSource& src) {
     out += "\nEquilibrium mix (both choose at random, payoff = margin):\n";
     std::vector<std::vector<std::string>> mix;
     for (std::size_t i = 0; i < n; ++i)
-        mix.push_back({"  " + t.name(i), percent(t.equilibrium.weight[i]),
-                       fmt::format("{:+.4f}", 100 * t.equilibrium.guaranteed[i])});
+        mix.push_back({"  " + t.name(i), percent(t.equilibrium.weight[i]), signed_points(t.equilibrium.guaranteed[i])});
     std::string tab = table({"  option", "weight", "mix against it (points)"}, mix);
     out += tab;
-    out += fmt::format("Support: {}. The mix loses to no pure option: its worst expected margin is {}.\n",
+    // The worst expected margin is 0 up to rounding when the game is symmetric: fixed notation, no "-6.94e-16".
+    out += fmt::format("Support: {}. The mix loses to no pure option: its worst expected margin is {} points.\n",
                        and_list(names_of(t, t.equilibrium.support)),
-                       points(*std::min_element(t.equilibrium.guaranteed.begin(), t.equilibrium.guaranteed.end())));
+                       signed_points(*std::min_element(t.equilibrium.guaranteed.begin(), t.equilibrium.guaranteed.end())));
     if (!t.matrix.bounds_proven)
         out += "\nWarning: some error bounds are estimates, not proven; arcs near their bound may be wrong.\n";
     return out;

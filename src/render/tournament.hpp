@@ -30,8 +30,4 @@ std::string tournament_latex(const Tournament& t, const TournamentSource& src);
 std::string tournament_csv(const Tournament& t);
 std::string tournament_dot(const Tournament& t, const TournamentSource& src);
 
-// A margin in percentage points, e.g. "1.2345 points"; tiny margins keep
-// three significant digits.
-std::string points(double margin);
-
 }  // namespace overshoot::render
