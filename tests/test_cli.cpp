@@ -691,6 +691,7 @@ TEST_CASE("cli: head starts reach duel, tournament, certify and search, and noth
     expect_one_line_error({"duel", "1d6", "2d6", "--length", "30", "--head-start", "3d6:4"}, "3d6");
     expect_one_line_error({"duel", "1d6", "2d6", "--length", "30", "--head-start", "1d6:30"}, "0..29");
     expect_one_line_error({"search", "1d6", "2d6", "--length", "30", "--head-starts", "30"}, "--head-starts");
+}
 
 // ------------------------------------------------------------- wording (issue 17, part 2)
 

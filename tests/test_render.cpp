@@ -160,12 +160,12 @@ TEST_CASE("render: an exact margin of 0 is even, not undecided; a non-zero one d
     REQUIRE(sgn(e.margin()) == 0);
     const std::string without = render::duel_text(s.board, Order::simultaneous, s.a, s.b, s.r);
     CHECK_THAT(without, Catch::Contains("undecided"));  // floating point alone cannot tell
-    const std::string with = render::duel_text(s.board, Order::simultaneous, s.a, s.b, s.r, &e);
+    const std::string with = render::duel_text(s.board, Order::simultaneous, s.a, s.b, s.r, {}, &e);
     CHECK_THAT(with, Catch::Contains("are even: the exact margin is 0."));
     CHECK_THAT(with, !Catch::Contains("undecided"));
-    CHECK(render::duel_json(s.board, Order::simultaneous, s.a, s.b, s.r, &e)["verdict"] == "even");
-    CHECK_THAT(render::duel_markdown(s.board, Order::simultaneous, s.a, s.b, s.r, &e), Catch::Contains("even"));
-    CHECK_THAT(render::duel_latex(s.board, Order::simultaneous, s.a, s.b, s.r, &e), Catch::Contains("even"));
+    CHECK(render::duel_json(s.board, Order::simultaneous, s.a, s.b, s.r, {}, &e)["verdict"] == "even");
+    CHECK_THAT(render::duel_markdown(s.board, Order::simultaneous, s.a, s.b, s.r, {}, &e), Catch::Contains("even"));
+    CHECK_THAT(render::duel_latex(s.board, Order::simultaneous, s.a, s.b, s.r, {}, &e), Catch::Contains("even"));
 }
 
 TEST_CASE("render: the duel in Markdown and LaTeX escapes names and shows points", "[render]") {
