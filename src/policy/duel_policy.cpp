@@ -548,10 +548,16 @@ DuelPolicy solve_duel_policy(const std::vector<Chain>& a_menu, const std::vector
     const auto a_all = all_of(a_menu.size()), b_all = all_of(b_menu.size());
     Setting st(a_menu, b_menu);
     if (st.loops) {
-        st.rel = policy_detail::step_rounding(sweep_terms(a_menu, b_menu));
+        // One step of the operator nests A's row of moves around B's: its
+        // longest sum has both rows' terms, so one more widest move than the
+        // sweep's count.
+        int widest = 0;
+        for (const auto& c : a_menu) widest = std::max(widest, c.max_move);
+        for (const auto& c : b_menu) widest = std::max(widest, c.max_move);
+        const int k = sweep_terms(a_menu, b_menu) + widest;
+        st.rel = policy_detail::step_rounding(k);
         st.one_state = 2 * st.rel;
-        st.w = policy_detail::rounds_bound(A, a_all, B, b_all, order != Order::simultaneous, st.plan,
-                                           sweep_terms(a_menu, b_menu));
+        st.w = policy_detail::rounds_bound(A, a_all, B, b_all, order != Order::simultaneous, st.plan, k);
         d.iterated = true;
     }
     // On boards with loops every bound below is the proven error of the
