@@ -760,3 +760,68 @@ TEST_CASE("cli: a control character in a scenario's option name is refused in on
     CHECK(typed.err.find('\x1b') == std::string::npos);
     CHECK_THAT(typed.err, Catch::Contains("\\x1b"));
 }
+
+TEST_CASE("cli: certify says where the certificate went; check speaks in its own words", "[cli][wording]") {
+    const fs::path f = scratch() / "said.json";
+    Run c = run({"certify", "winner", "1d6", "2d6", "--length", "10", "-o", f.string()});
+    REQUIRE(c.status == 0);
+    CHECK(c.out.empty());
+    CHECK(c.err_lines() == 1);
+    CHECK_THAT(c.err, Catch::Contains("certificate written to " + f.string() + ": 1d6 beats 2d6") &&
+                          Catch::Contains("overshoot check " + f.string()));
+    Run k = run({"check", f.string()});
+    REQUIRE(k.status == 0);
+    std::istringstream lines(k.out);
+    for (std::string line; std::getline(lines, line);) CHECK(line.rfind("ok", 0) != 0);
+    CHECK_THAT(k.out, Catch::Contains("checked  options:") && Catch::Contains("certificate holds"));
+    CHECK_THAT(k.out, Catch::Contains("primes of the modular checks: "));  // exact fractions were checked
+    // The referee's lines are its own words too.
+    Run ref = overshoot::testing::run_shell("python3 " + quote(std::string(OVERSHOOT_SOURCE_DIR) + "/tools/referee.py") +
+                                                " " + quote(f.string()),
+                                            scratch() / "stderr.txt");
+    if (ref.status == 0) {
+        std::istringstream rl(ref.out);
+        for (std::string line; std::getline(rl, line);) CHECK(line.rfind("ok", 0) != 0);
+        CHECK_THAT(ref.out, Catch::Contains("checked  duel 1d6 vs 2d6"));
+    }
+}
+
+TEST_CASE("cli: sweep says who is preferred where and by how much, and when a bound misses 1e-12",
+          "[cli][wording]") {
+    Run r = run({"sweep", "1d6", "3d6", "--lengths", "10..40"});
+    REQUIRE(r.status == 0);
+    // Nothing changes, and the text still says who wins and by how much.
+    CHECK_THAT(r.out, Catch::Contains("crossovers: none"));
+    CHECK_THAT(r.out, Catch::Contains("1d6 vs 3d6: 1d6 at 10..40 (by "));
+    Run cross = run({"sweep", "1d6", "2d6", "--lengths", "114..117"});
+    CHECK_THAT(cross.out, Catch::Contains("1d6 at 114..115 (by 0.1678 to 0.3531 points); 2d6 at 116..117"));
+    // 3.4e-12 is above the promised 1e-12: the text says so, and the CSV run says so on stderr.
+    CHECK_THAT(cross.out, Catch::Contains("note: the target bound 1e-12 was not reached everywhere"));
+    Run csv = run({"sweep", "1d6", "2d6", "--lengths", "114..117", "--csv"});
+    REQUIRE(csv.status == 0);
+    CHECK(csv.err_lines() == 1);
+    CHECK_THAT(csv.err, Catch::Contains("the largest bound proven is 3.5e-12 (1d6 vs 2d6 at length 117)"));
+    CHECK(run({"sweep", "1d6", "2d6", "--lengths", "114..117", "--json"}).json()["target_bound_met"] == false);
+    Run small = run({"sweep", "1d6", "2d6", "--lengths", "10..20", "--csv"});
+    CHECK(small.err.empty());
+    CHECK(run({"sweep", "1d6", "2d6", "--lengths", "10..20", "--json"}).json()["target_bound_met"] == true);
+}
+
+TEST_CASE("cli: duel, sweep and hunt write Markdown and LaTeX", "[cli][wording]") {
+    for (const auto& args : std::vector<std::vector<std::string>>{
+             {"duel", "1d6", "2d6", "--length", "30"},
+             {"sweep", "1d6", "2d6", "--lengths", "10..20"},
+             {"hunt", "1..3d6", "--lengths", "595..600"}}) {  // 1d6 > 3d6 > 2d6 > 1d6 holds there
+        auto md = args, tex = args;
+        md.insert(md.end(), {"--format", "md"});
+        tex.insert(tex.end(), {"--format", "latex"});
+        Run m = run(md), t = run(tex);
+        INFO(args.front());
+        CHECK(m.status == 0);
+        CHECK(t.status == 0);
+        CHECK_THAT(m.out, Catch::Contains("|---"));
+        CHECK_THAT(t.out, Catch::Contains("\\begin{tabular}") && Catch::Contains("\\bottomrule"));
+    }
+    Run help = run({"--help"});
+    CHECK_THAT(help.out, Catch::Contains("  search "));  // the main help lists every command
+}

@@ -18,6 +18,7 @@
 #include "core/family.hpp"
 #include "hunt/hunt.hpp"
 #include "lengths/lengths.hpp"
+#include "sweep/stretches.hpp"
 #include "sweep/sweep.hpp"
 #include "tournament/cycles.hpp"
 #include "tournament/tournament.hpp"
@@ -176,4 +177,40 @@ TEST_CASE("bad sweep and hunt input is refused with a clear error", "[sweep]") {
     }
     REQUIRE_THROWS_AS(load_checkpoint(path), InputError);
     std::remove(path.c_str());
+}
+
+TEST_CASE("stretches: who is preferred over which lengths, with the smallest and largest margin", "[sweep]") {
+    // Made-up outcomes: a wins by 0.3 and 0.1, one length within its bound, then b wins by 0.2.
+    PairSweep p;
+    p.a = 0;
+    p.b = 1;
+    auto at = [](double a, double b, double bound) {
+        LengthOutcome o;
+        o.p_a_wins = a;
+        o.p_b_wins = b;
+        o.p_tie = 1 - a - b;
+        o.bound = bound;
+        return o;
+    };
+    p.at = {at(0.6, 0.3, 1e-15), at(0.5, 0.4, 1e-15), at(0.45, 0.45 + 1e-16, 1e-15), at(0.3, 0.5, 1e-15)};
+    const std::vector<Stretch> s = preference_stretches(p, {10, 11, 12, 13});
+    REQUIRE(s.size() == 3);
+    CHECK((s[0].first == 10 && s[0].last == 11 && s[0].verdict == 1 && s[0].count == 2));
+    CHECK(s[0].least == Approx(0.1));
+    CHECK(s[0].most == Approx(0.3));
+    CHECK((s[1].first == 12 && s[1].last == 12 && s[1].verdict == 0));
+    CHECK((s[2].first == 13 && s[2].verdict == -1));
+    CHECK(s[2].least == Approx(0.2));
+    // The largest bound of a sweep, and where it is.
+    SweepResult r;
+    r.options = {parse_option("1d6"), parse_option("2d6")};
+    VariantSweep v;
+    v.lengths = {10, 11, 12, 13};
+    p.at[2].bound = 2e-12;
+    v.pairs = {p};
+    r.variants = {v};
+    const LargestBound b = largest_bound(r);
+    CHECK(b.bound > 4e-12);
+    CHECK(b.length == 12);
+    CHECK(render::sweep_bound_note(r).find("at length 12") != std::string::npos);
 }

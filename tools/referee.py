@@ -382,7 +382,7 @@ def main(argv):
                 t0 = time.perf_counter()
                 v, width = residual_duel(n, rule, jumps, options[a], options[b], order, d, where)
                 if v is None:
-                    print(f"skip {where}: the proven margin interval (width {width:.3g}) does not decide; only the "
+                    print(f"skipped  {where}: the proven margin interval (width {width:.3g}) does not decide; only the "
                           f"exact fractions do, and they are not re-derived here")
                     skipped.append(where)
                     continue
@@ -392,14 +392,14 @@ def main(argv):
                     for k, x in ref.items():
                         if fraction(d[k]["exact"], f"{where}: {k}") != x:
                             raise Wrong(f"{where}: {k} is wrong (fractions give {str(x)[:50]}...)")
-                    print(f"ok   {where}: 5 fractions re-derived with fractions.Fraction (--force)")
-                print(f"ok   {where}: residual certificate verified with integers and fractions.Fraction "
+                    print(f"checked  {where}: 5 fractions re-derived with fractions.Fraction (--force)")
+                print(f"checked  {where}: residual certificate verified with integers and fractions.Fraction "
                       f"(margin {d['margin']['decimal']}, proven width {width:.3g}; {time.perf_counter() - t0:.2f} s)"
                       + ("; its exact fractions lie in the proven intervals (--force re-derives them)"
                          if d.get("exact_method") and not force else ""))
                 continue
             if d.get("exact_method") is None:
-                print(f"skip {where}: no exact fractions (proven interval only)")
+                print(f"skipped  {where}: no exact fractions (proven interval only)")
                 skipped.append(where)
                 continue
             claimed = {k: fraction(d[k]["exact"], f"{where}: {k}") for k in
@@ -410,7 +410,7 @@ def main(argv):
                 duel(cal, rule, [j for j in jumps if max(j) < cal], options[a], options[b], order)
                 t = time.perf_counter() - t0
                 est = t * (n / cal) ** 3.5
-                print(f"skip {where}: {n * n} pairs of squares exceed --max-cells {max_cells}; "
+                print(f"skipped  {where}: {n * n} pairs of squares exceed --max-cells {max_cells}; "
                       f"this duel would take about {est / 3600:.1f} hours here (timed {t:.2f} s on {cal} squares, "
                       f"scaled by length^3.5); --force runs it")
                 skipped.append(where)
@@ -422,7 +422,7 @@ def main(argv):
                         print(f"referee: {path}: {where}: {k} is wrong (fractions give {str(v)[:50]}...)",
                               file=sys.stderr)
                         return 1
-                print(f"ok   {where}: 5 fractions re-derived with fractions.Fraction "
+                print(f"checked  {where}: 5 fractions re-derived with fractions.Fraction "
                       f"({time.perf_counter() - t0:.2f} s)")
             if sum(claimed[k] for k in ("p_a_wins", "p_b_wins", "p_tie", "p_neither")) != 1:
                 print(f"referee: {path}: {where}: the outcomes do not add up to 1", file=sys.stderr)

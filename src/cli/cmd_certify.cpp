@@ -54,6 +54,9 @@ void run(const CertifyArgs& a) {
                              : format == "latex" ? render::certificate_latex(cert)
                                                  : render::certificate_json(cert).dump(1) + "\n";
     deliver(a.out, text);
+    // Written to a file, the certificate is out of sight: say so in one line (stdout stays empty).
+    if (a.out.output && *a.out.output != "-")
+        std::fprintf(stderr, "overshoot: %s\n", render::certificate_written(cert, *a.out.output).c_str());
 }
 
 void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind kind) {

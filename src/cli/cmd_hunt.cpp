@@ -113,7 +113,11 @@ void print_plan_only(const HuntArgs& a, const HuntSpec& spec, int ranks, int thr
 }
 
 void finish(const HuntArgs& a, const HuntResult& r, const HuntSpec& spec) {
-    deliver(a.out, a.out.chosen() == "json" ? render::hunt_json(r, spec).dump(2) + "\n" : render::hunt_text(r, spec));
+    const std::string format = a.out.chosen();
+    deliver(a.out, format == "json"    ? render::hunt_json(r, spec).dump(2) + "\n"
+                   : format == "md"    ? render::hunt_markdown(r, spec)
+                   : format == "latex" ? render::hunt_latex(r, spec)
+                                       : render::hunt_text(r, spec));
     if (!r.complete) {
         std::fprintf(stderr, "overshoot: hunt interrupted: %zu of %zu pairs known%s\n", r.pairs_known, r.pairs_total,
                      spec.checkpoint.empty() ? "" : "; continue with --resume");
@@ -301,7 +305,7 @@ const Registration reg(70, [](CLI::App& app) {
         cmd->add_option("--checkpoint", args->checkpoint, "keep finished work in this file (written atomically)");
     cmd->add_flag("--resume", args->resume, "continue from --checkpoint without redoing finished pairs")->needs(checkpoint);
     cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)")->check(whole_in(0, 4096));
-    add_output_flags(*cmd, args->out, {"text", "json"});
+    add_output_flags(*cmd, args->out, {"text", "json", "md", "latex"});
     cmd->add_option("--method", args->method, "all-lengths method: auto, series, pairs, pairs-scalar or closure")
         ->check(one_of({"auto", "series", "pairs", "pairs-scalar", "closure"}));
     cmd->add_option("--stop-after-pairs", args->stop_after,

@@ -2,6 +2,7 @@
 // lengths and rule variants, with crossovers and the intervals of each cycle.
 #include <fmt/format.h>
 
+#include <cstdio>
 #include <memory>
 #include <optional>
 
@@ -99,9 +100,14 @@ void run(const SweepArgs& a) {
     spec.max_cycle_length = a.max_cycle_length;
     SweepResult r = run_sweep(spec);
     const std::string format = a.out.chosen();
-    deliver(a.out, format == "json" ? render::sweep_json(r).dump(2) + "\n"
-                   : format == "csv" ? render::sweep_csv(r)
-                                     : render::sweep_text(r));
+    deliver(a.out, format == "json"    ? render::sweep_json(r).dump(2) + "\n"
+                   : format == "csv"   ? render::sweep_csv(r)
+                   : format == "md"    ? render::sweep_markdown(r)
+                   : format == "latex" ? render::sweep_latex(r)
+                                       : render::sweep_text(r));
+    // The text carries the note itself; the other formats leave it to stderr.
+    const std::string note = render::sweep_bound_note(r);
+    if (!note.empty() && format != "text") std::fprintf(stderr, "overshoot: %s\n", note.c_str());
 }
 
 const Registration reg(60, [](CLI::App& app) {
@@ -122,7 +128,7 @@ const Registration reg(60, [](CLI::App& app) {
     args->jump_option = add_jump_flags(*cmd, args->jumps, args->anchor,
                                        "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO");
     cmd->add_option("--scenario", args->scenario, "a TOML scenario file (flags override it)");
-    add_output_flags(*cmd, args->out, {"text", "json", "csv"});
+    add_output_flags(*cmd, args->out, {"text", "json", "csv", "md", "latex"});
     cmd->add_option("--method", args->method, "all-lengths method: auto, series, pairs, pairs-scalar or closure (docs/sweep.md)")
         ->check(one_of({"auto", "series", "pairs", "pairs-scalar", "closure"}));
     cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)")->check(whole_in(0, 4096));

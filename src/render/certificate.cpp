@@ -193,15 +193,20 @@ std::string certificate_latex(const Certificate& c) {
 
 std::string check_text(const Certificate& c, const CheckReport& r) {
     std::string out;
-    for (const auto& p : r.passed) out += fmt::format("ok  {}: {}\n", p.item, p.detail);
+    for (const auto& p : r.passed) out += fmt::format("checked  {}: {}\n", p.item, p.detail);
+    // The primes matter only where exact fractions were checked modulo them.
     std::string primes;
     for (auto p : r.primes) primes += fmt::format("{}{}", primes.empty() ? "" : ", ", p);
-    out += fmt::format("moduli: {}\n", primes);
+    if (!primes.empty()) out += fmt::format("primes of the modular checks: {}\n", primes);
     if (r.holds)
         out += fmt::format("certificate holds: {}.\n", c.statement);
     else
         out += fmt::format("certificate FAILS: {}\n", r.failure);
     return out;
+}
+
+std::string certificate_written(const Certificate& c, const std::string& path) {
+    return fmt::format("certificate written to {}: {}. Re-check it with: overshoot check {}", path, c.statement, path);
 }
 
 nlohmann::json check_json(const Certificate& c, const CheckReport& r) {

@@ -12,6 +12,9 @@ nlohmann::json certificate_json(const Certificate& c);
 std::string certificate_markdown(const Certificate& c);
 std::string certificate_latex(const Certificate& c);
 
+// The one line certify says on success when the certificate went to a file.
+std::string certificate_written(const Certificate& c, const std::string& path);
+
 std::string check_text(const Certificate& c, const CheckReport& r);
 nlohmann::json check_json(const Certificate& c, const CheckReport& r);
 

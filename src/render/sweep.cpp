@@ -8,6 +8,7 @@
 #include "race/outcome.hpp"
 #include "render/document.hpp"
 #include "render/tournament.hpp"
+#include "sweep/stretches.hpp"
 
 namespace overshoot::render {
 
@@ -61,6 +62,27 @@ std::string jumps_text(const std::vector<Jump>& jumps, JumpAnchor anchor, const 
     return s;
 }
 
+// points() without its unit, for the first number of a range.
+std::string bare_points(double margin) {
+    std::string s = points(margin);
+    return s.substr(0, s.size() - std::string(" points").size());
+}
+
+// "1d6 at 10..115 (0.1678 to 28.3000 points); 2d6 at 116..200 (...)": who is
+// preferred over which lengths and by how much, also when nothing changes.
+std::string stretches_text(const SweepResult& r, const PairSweep& p, const std::vector<int>& lengths) {
+    std::string out;
+    for (const Stretch& st : preference_stretches(p, lengths)) {
+        const std::string where = st.first == st.last ? fmt::format("{}", st.first) : fmt::format("{}..{}", st.first, st.last);
+        const std::string who = st.verdict > 0 ? r.options[p.a].name : st.verdict < 0 ? r.options[p.b].name : "undecided";
+        const std::string by = st.least == st.most ? points(st.least)
+                                                   : fmt::format("{} to {}", bare_points(st.least), points(st.most));
+        out += fmt::format("{}{} at {} ({}{})", out.empty() ? "" : "; ", who, where, st.verdict == 0 ? "margins " : "by ",
+                           by);
+    }
+    return out;
+}
+
 }  // namespace
 
 std::string sweep_text(const SweepResult& r) {
@@ -72,6 +94,10 @@ std::string sweep_text(const SweepResult& r) {
             methods += fmt::format("{}{} vs {}: {}", methods.empty() ? "" : "; ", r.options[p.a].name,
                                    r.options[p.b].name, to_string(p.method));
         out += fmt::format("  method: {}\n", methods);
+        out += "  preferred, by margin (smallest to largest):\n";
+        for (const auto& p : vs.pairs)
+            out += fmt::format("    {} vs {}: {}\n", r.options[p.a].name, r.options[p.b].name,
+                               stretches_text(r, p, vs.lengths));
         if (vs.crossovers.empty()) {
             out += "  crossovers: none\n";
         } else {
@@ -119,7 +145,19 @@ std::string sweep_text(const SweepResult& r) {
             }
         }
     }
+    const std::string note = sweep_bound_note(r);
+    if (!note.empty()) out += "\n" + note + "\n";
     return out;
+}
+
+std::string sweep_bound_note(const SweepResult& r) {
+    const LargestBound b = largest_bound(r);
+    if (!(b.bound > target_bound)) return {};
+    const PairSweep& p = r.variants[b.variant].pairs[b.pair];
+    return fmt::format("note: the target bound {:g} was not reached everywhere; the largest bound proven is {:.2g} "
+                       "({} vs {} at length {}{})",
+                       target_bound, b.bound, r.options[p.a].name, r.options[p.b].name, b.length,
+                       r.variants.size() > 1 ? ", " + variant_text(r.variants[b.variant].variant) : std::string());
 }
 
 json sweep_json(const SweepResult& r) {
@@ -190,6 +228,9 @@ json sweep_json(const SweepResult& r) {
                               {"count", c.count}});
     }
     j["variants"] = variants;
+    const LargestBound lb = largest_bound(r);
+    j["largest_error_bound"] = lb.bound;
+    j["target_bound_met"] = !(lb.bound > target_bound);
     j["per_length"] = per;
     j["crossovers"] = cross;
     j["cycles"] = cycles;
@@ -210,6 +251,56 @@ std::string sweep_csv(const SweepResult& r) {
                                    csv_cell(r.options[p.b].name), number(o.p_a_wins), number(o.p_b_wins), number(o.p_tie),
                                    number(o.p_neither), number(o.margin()), number(bound), csv_cell(pref), to_string(p.method));
             }
+    return out;
+}
+
+std::string sweep_markdown(const SweepResult& r) {
+    std::string out = fmt::format("Sweep of {} over {}, {}.\n", plural(static_cast<long long>(r.options.size()), "option"),
+                                  grid_text(r.grid), md_escape(jumps_text(r.jumps, r.anchor, r.grid)));
+    for (const auto& vs : r.variants) {
+        out += fmt::format("\n### {}\n\n", md_escape(variant_text(vs.variant)));
+        out += "| A | B | preferred | lengths | smallest margin (points) | largest margin (points) |\n"
+               "|---|---|---|---|---:|---:|\n";
+        for (const auto& p : vs.pairs)
+            for (const Stretch& st : preference_stretches(p, vs.lengths))
+                out += fmt::format("| {} | {} | {} | {}..{} | {} | {} |\n", md_escape(r.options[p.a].name),
+                                   md_escape(r.options[p.b].name),
+                                   st.verdict > 0 ? md_escape(r.options[p.a].name)
+                                   : st.verdict < 0 ? md_escape(r.options[p.b].name) : std::string("undecided"),
+                                   st.first, st.last, bare_points(st.least), bare_points(st.most));
+        out += "\n**Crossovers:**" + std::string(vs.crossovers.empty() ? " none.\n" : "\n\n");
+        for (const auto& c : vs.crossovers)
+            out += fmt::format("- {} vs {}: {} preferred up to {}, {} from {}\n", md_escape(r.options[c.a].name),
+                               md_escape(r.options[c.b].name), md_escape(r.options[c.preferred_before].name), c.before,
+                               md_escape(r.options[c.preferred_after].name), c.after);
+        out += "\n**Cycles:**" + std::string(vs.cycles.empty() ? " none.\n" : "\n\n");
+        for (const auto& c : vs.cycles)
+            out += fmt::format("- {}: lengths {}; strength {} at {}\n", md_escape(cycle_text(r.options, c.options)),
+                               runs_text(c.intervals), points(c.strongest), c.strongest_length);
+    }
+    const std::string note = sweep_bound_note(r);
+    if (!note.empty()) out += "\n" + md_escape(note) + "\n";
+    return out;
+}
+
+std::string sweep_latex(const SweepResult& r) {
+    std::string out = fmt::format("% sweep of {} over {}, {}\n% needs \\usepackage{{booktabs}}\n",
+                                  plural(static_cast<long long>(r.options.size()), "option"), grid_text(r.grid),
+                                  jumps_text(r.jumps, r.anchor, r.grid));
+    for (const auto& vs : r.variants) {
+        out += fmt::format("\n% {}\n\\begin{{tabular}}{{lllrrr}}\n\\toprule\n", variant_text(vs.variant));
+        out += "$A$ & $B$ & preferred & lengths & smallest margin & largest margin \\\\\n\\midrule\n";
+        for (const auto& p : vs.pairs)
+            for (const Stretch& st : preference_stretches(p, vs.lengths))
+                out += fmt::format("{} & {} & {} & {}--{} & {} & {} \\\\\n", latex_escape(r.options[p.a].name),
+                                   latex_escape(r.options[p.b].name),
+                                   st.verdict > 0 ? latex_escape(r.options[p.a].name)
+                                   : st.verdict < 0 ? latex_escape(r.options[p.b].name) : std::string("undecided"),
+                                   st.first, st.last, bare_points(st.least), bare_points(st.most));
+        out += "\\bottomrule\n\\end{tabular}\n% margins in percentage points\n";
+    }
+    const std::string note = sweep_bound_note(r);
+    if (!note.empty()) out += "% " + note + "\n";
     return out;
 }
 
@@ -247,6 +338,41 @@ std::string hunt_text(const HuntResult& r, const HuntSpec& spec) {
     if (spec.variants.size() > 1) header.insert(header.begin() + 1, "rules");
     out += table(header, rows);
     if (r.distinct > r.cycles.size()) out += fmt::format("({} more sets not listed)\n", r.distinct - r.cycles.size());
+    return out;
+}
+
+std::string hunt_markdown(const HuntResult& r, const HuntSpec& spec) {
+    std::string out = fmt::format("Hunt for {}-cycles among {} over {}.\n\n", spec.cycle_length,
+                                  plural(static_cast<long long>(spec.options.size()), "option"), grid_text(spec.grid));
+    if (!r.complete) out += "**Interrupted:** only cycles whose pairs are all known are listed.\n\n";
+    if (r.cycles.empty()) return out + "No cycle found.\n";
+    out += "| rank | rules | cycle | strength (points) | at length | lengths held | where |\n"
+           "|---:|---|---|---:|---:|---:|---|\n";
+    for (std::size_t i = 0; i < r.cycles.size(); ++i) {
+        const HuntCycle& c = r.cycles[i];
+        out += fmt::format("| {} | {} | {} | {} | {} | {} | {} |\n", i + 1,
+                           md_escape(variant_text(spec.variants[c.variant])),
+                           md_escape(cycle_text(spec.options, c.options)), bare_points(c.strongest),
+                           c.strongest_length, c.count, runs_text(c.intervals));
+    }
+    return out;
+}
+
+std::string hunt_latex(const HuntResult& r, const HuntSpec& spec) {
+    std::string out = fmt::format("% hunt for {}-cycles among {} over {}\n% needs \\usepackage{{booktabs}}\n",
+                                  spec.cycle_length, plural(static_cast<long long>(spec.options.size()), "option"),
+                                  grid_text(spec.grid));
+    if (!r.complete) out += "% interrupted: only cycles whose pairs are all known are listed\n";
+    out += "\\begin{tabular}{rllrrrl}\n\\toprule\n";
+    out += "rank & rules & cycle & strength (points) & at length & lengths held & where \\\\\n\\midrule\n";
+    for (std::size_t i = 0; i < r.cycles.size(); ++i) {
+        const HuntCycle& c = r.cycles[i];
+        out += fmt::format("{} & {} & {} & {} & {} & {} & {} \\\\\n", i + 1,
+                           latex_escape(variant_text(spec.variants[c.variant])),
+                           latex_escape(cycle_text(spec.options, c.options)), bare_points(c.strongest),
+                           c.strongest_length, c.count, runs_text(c.intervals));
+    }
+    out += "\\bottomrule\n\\end{tabular}\n";
     return out;
 }
 

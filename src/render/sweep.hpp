@@ -12,9 +12,17 @@ namespace overshoot::render {
 std::string sweep_text(const SweepResult& r);
 nlohmann::json sweep_json(const SweepResult& r);
 std::string sweep_csv(const SweepResult& r);
+// One line when some margin's bound is above the 1e-12 target, else empty:
+// the text ends with it; the CLI says it on stderr for the other formats.
+std::string sweep_bound_note(const SweepResult& r);
+// Who is preferred over which lengths (and by how much), crossovers and cycles.
+std::string sweep_markdown(const SweepResult& r);
+std::string sweep_latex(const SweepResult& r);
 
 std::string hunt_text(const HuntResult& r, const HuntSpec& spec);
 nlohmann::json hunt_json(const HuntResult& r, const HuntSpec& spec);
+std::string hunt_markdown(const HuntResult& r, const HuntSpec& spec);
+std::string hunt_latex(const HuntResult& r, const HuntSpec& spec);
 
 // The shard plan of a hunt (`hunt --plan`): one row per shard, then per rank.
 std::string hunt_plan_text(const HuntPlan& plan, const HuntSpec& spec, int threads);
