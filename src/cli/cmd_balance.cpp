@@ -64,7 +64,7 @@ const Registration reg(32, [](CLI::App& app) {
     set_usage(*cmd, "SPEC SPEC [SPEC...]", "2 to 6 pieces, one option each: specs such as 1d6 or [1,2,6], or option names from --scenario");
     add_board_flags(*cmd, args->board, false);
     add_output_flags(*cmd, args->out, {"text", "json"});
-    cmd->add_option("--order", args->order, "race order: simultaneous or seated")->check(one_of({"simultaneous", "seated"}));
+    cmd->add_option("--order", args->order, "race order: simultaneous or seated")->type_name("ORDER")->check(one_of({"simultaneous", "seated"}));
     cmd->add_option("--starts", args->starts, "search a start square LO..HI for every option (exact, pruned)")
         ->check(range_in(0, limits::max_length));
     cmd->add_option("--lengths", args->lengths, "race at every length LO..HI and list the fairest")

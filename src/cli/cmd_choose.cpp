@@ -48,6 +48,7 @@ const Registration reg(31, [](CLI::App& app) {
     add_board_flags(*cmd, args->board, false);
     add_output_flags(*cmd, args->out, {"text", "json"});
     cmd->add_option("--order", args->order, "race order: simultaneous or seated (players sit in picking order)")
+        ->type_name("ORDER")
         ->check(one_of({"simultaneous", "seated"}));
     cmd->add_option("--players", args->players, "number of players (default 2)")->check(whole_in(2, max_race_pieces));
     cmd->add_flag("--distinct", args->distinct, "no option may be picked twice");

@@ -66,7 +66,8 @@ const Registration reg(30, [](CLI::App& app) {
     set_usage(*cmd, "SPEC SPEC [SPEC...]", "2 to 6 pieces, one option each: specs such as 1d6 or [1,2,6], or option names from --scenario");
     add_board_flags(*cmd, args->board, false);
     add_output_flags(*cmd, args->out, {"text", "json"});
-    cmd->add_option("--order", args->order, "simultaneous (same-round finishers share) or seated (listed order, first to land wins)")
+    cmd->add_option("--order", args->order, "simultaneous (same-round finishers share) or seated (listed order, first to land wins; with two pieces the duel order a-first)")
+        ->type_name("ORDER")
         ->check(one_of({"simultaneous", "seated"}));
     cmd->add_option("--start", args->starts, "start square of each piece, in order (repeat the flag once per piece, or A,B,...)")
         ->allow_extra_args(false)

@@ -20,10 +20,12 @@ void add_variant_flags(CLI::App& cmd, std::vector<std::string>& rules, std::vect
                        const char* order_help) {
     // One value per flag, or a comma list: a rule never swallows the option words after it.
     cmd.add_option("--overshoot", rules, "rule(s): stay, bounce, pass; repeat the flag or comma-separate for variants")
+        ->type_name("RULE")
         ->allow_extra_args(false)
         ->delimiter(',')
         ->check(one_of({"stay", "bounce", "pass"}));
     cmd.add_option("--order", orders, order_help)
+        ->type_name("ORDER")
         ->allow_extra_args(false)
         ->delimiter(',')
         ->check(one_of({"simultaneous", "a-first", "b-first", "coin"}));
