@@ -405,8 +405,10 @@ TEST_CASE("cli: hunt --plan-only plans for --ranks without computing", "[cli]") 
     // Progress lines for logs: at least the closing one, and nothing on stdout but the result.
     Run p = run({"hunt", "dice(count=1..3, sides=4,6)", "--lengths", "10..60", "--progress-every", "1000", "--json"});
     REQUIRE(p.status == 0);
-    REQUIRE(p.err_lines() == 1);
+    // The closing progress line, and the note when a bound is above 1e-12 (2.2e-12 here).
+    REQUIRE(p.err_lines() == 2);
     REQUIRE(p.err.rfind("overshoot: hunt: 100.0% of its cells after ", 0) == 0);
+    CHECK_THAT(p.err, Catch::Contains("\novershoot: note: the target bound 1e-12 was not reached everywhere"));
     REQUIRE(p.json()["complete"] == true);
     expect_one_line_error({"hunt", "1..3d4", "--lengths", "10..20", "--progress-every", "0"}, "--progress-every");
 }
@@ -830,4 +832,17 @@ TEST_CASE("cli: duel, sweep and hunt write Markdown and LaTeX", "[cli][wording]"
     }
     Run help = run({"--help"});
     CHECK_THAT(help.out, Catch::Contains("  search "));  // the main help lists every command
+}
+
+TEST_CASE("cli: a hunt says when a bound misses 1e-12", "[cli][wording]") {
+    Run r = run({"hunt", "1..3d6", "--lengths", "595..600"});
+    REQUIRE(r.status == 0);
+    CHECK_THAT(r.out, Catch::Contains("note: the target bound 1e-12 was not reached everywhere; the largest bound "
+                                      "proven is"));
+    auto j = run({"hunt", "1..3d6", "--lengths", "595..600", "--json"}).json();
+    CHECK(j["target_bound_met"] == false);
+    CHECK(j["largest_error_bound"].get<double>() > 1e-12);
+    Run small = run({"hunt", "1..3d6", "--lengths", "10..12", "--json"});
+    CHECK(small.err.empty());
+    CHECK(small.json()["target_bound_met"] == true);
 }

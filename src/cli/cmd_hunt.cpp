@@ -118,6 +118,8 @@ void finish(const HuntArgs& a, const HuntResult& r, const HuntSpec& spec) {
                    : format == "md"    ? render::hunt_markdown(r, spec)
                    : format == "latex" ? render::hunt_latex(r, spec)
                                        : render::hunt_text(r, spec));
+    const std::string note = render::hunt_bound_note(r);
+    if (!note.empty() && format != "text") std::fprintf(stderr, "overshoot: %s\n", note.c_str());
     if (!r.complete) {
         std::fprintf(stderr, "overshoot: hunt interrupted: %zu of %zu pairs known%s\n", r.pairs_known, r.pairs_total,
                      spec.checkpoint.empty() ? "" : "; continue with --resume");

@@ -49,6 +49,10 @@ HuntResult search_cycles(const HuntSpec& spec, const HuntStore& store) {
                     if (!store.known(v, i, j)) continue;
                     const std::size_t idx = store.slot(v, i, j);
                     const double m = store.margin[idx][k], b = store.bound[idx][k];
+                    if (b > out.largest_bound) {
+                        out.largest_bound = b;
+                        out.largest_bound_length = lengths[k];
+                    }
                     mg[i * n + j] = m;
                     mg[j * n + i] = -m;
                     // Arcs weaker than the wanted strength cannot be in a wanted cycle.

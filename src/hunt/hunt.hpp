@@ -29,6 +29,8 @@ struct HuntResult {
     unsigned long long cycles_found = 0;           // (cycle, length) instances meeting the wishes
     std::size_t distinct = 0;                      // distinct (variant, cycle)
     std::vector<HuntCycle> cycles;                 // ranked, at most max_listed
+    double largest_bound = 0;  // largest error bound on a known margin (the 1e-12 target)
+    int largest_bound_length = 0;
 };
 
 // One process: loads the checkpoint when resuming, computes every unknown

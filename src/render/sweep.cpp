@@ -323,6 +323,8 @@ std::string hunt_text(const HuntResult& r, const HuntSpec& spec) {
                        r.lengths_examined, r.sets_examined, r.cycles_found, r.distinct);
     if (r.cycles.empty()) {
         out += "no cycle found\n";
+        const std::string note = hunt_bound_note(r);
+        if (!note.empty()) out += note + "\n";
         return out;
     }
     std::vector<std::vector<std::string>> rows;
@@ -338,7 +340,16 @@ std::string hunt_text(const HuntResult& r, const HuntSpec& spec) {
     if (spec.variants.size() > 1) header.insert(header.begin() + 1, "rules");
     out += table(header, rows);
     if (r.distinct > r.cycles.size()) out += fmt::format("({} more sets not listed)\n", r.distinct - r.cycles.size());
+    const std::string note = hunt_bound_note(r);
+    if (!note.empty()) out += note + "\n";
     return out;
+}
+
+std::string hunt_bound_note(const HuntResult& r) {
+    if (!(r.largest_bound > target_bound)) return {};
+    return fmt::format("note: the target bound {:g} was not reached everywhere; the largest bound proven is {:.2g} "
+                       "(at length {})",
+                       target_bound, r.largest_bound, r.largest_bound_length);
 }
 
 std::string hunt_markdown(const HuntResult& r, const HuntSpec& spec) {
@@ -409,6 +420,8 @@ json hunt_json(const HuntResult& r, const HuntSpec& spec) {
                        {"lengths", runs_json(c.intervals)},
                        {"count", c.count}});
     j["cycles"] = cyc;
+    j["largest_error_bound"] = r.largest_bound;
+    j["target_bound_met"] = !(r.largest_bound > target_bound);
     return j;
 }
 

@@ -21,6 +21,8 @@ std::string sweep_latex(const SweepResult& r);
 
 std::string hunt_text(const HuntResult& r, const HuntSpec& spec);
 nlohmann::json hunt_json(const HuntResult& r, const HuntSpec& spec);
+// One line when some known margin's bound is above the 1e-12 target, else empty.
+std::string hunt_bound_note(const HuntResult& r);
 std::string hunt_markdown(const HuntResult& r, const HuntSpec& spec);
 std::string hunt_latex(const HuntResult& r, const HuntSpec& spec);
 
