@@ -846,3 +846,12 @@ TEST_CASE("cli: a hunt says when a bound misses 1e-12", "[cli][wording]") {
     CHECK(small.err.empty());
     CHECK(small.json()["target_bound_met"] == true);
 }
+
+TEST_CASE("cli: the value of a symmetric policy game prints as 0, its margins in points", "[cli][wording]") {
+    Run r = run({"policy", "--menu", "1d6,2d6", "--against-menu", "1d6,2d6", "--length", "12"});
+    REQUIRE(r.status == 0);
+    // Both menus are the same: the value is 0 up to rounding, never "-6.7763e-19".
+    CHECK_THAT(r.out, Catch::Contains("value of the game (margin): 0.0000 points, proven within ["));
+    CHECK_THAT(r.out, Catch::Contains("margin (points)"));
+    CHECK_THAT(r.out, !Catch::Contains("-0.0000"));
+}

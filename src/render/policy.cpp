@@ -262,9 +262,9 @@ std::string duel_policy_text(const DuelPolicyView& v) {
                            d.sweeps, game ? "margin" : "P(A wins)", rounded_down(d.value_low),
                            rounded_up(d.value_high));
     if (game && v.order == Order::simultaneous)
-        out += fmt::format("value of the game (margin): {:+.4e} points, proven within [{:+.4e}, {:+.4e}]; {} of {} "
+        out += fmt::format("value of the game (margin): {} points, proven within [{:+.4e}, {:+.4e}]; {} of {} "
                            "states need a mixed choice\n",
-                           100 * static_cast<double>(d.value), 100 * static_cast<double>(d.value_low),
+                           margin_points(d.value), 100 * static_cast<double>(d.value_low),
                            100 * static_cast<double>(d.value_high), d.mixed_states,
                            static_cast<std::size_t>(d.length) * d.length);
     const FixedPolicy& best = c.fixed[c.best_fixed];
