@@ -783,6 +783,10 @@ TEST_CASE("cli: certify says where the certificate went; check speaks in its own
     for (std::string line; std::getline(lines, line);) CHECK(line.rfind("ok", 0) != 0);
     CHECK_THAT(k.out, Catch::Contains("checked  options:") && Catch::Contains("certificate holds"));
     CHECK_THAT(k.out, Catch::Contains("primes of the modular checks: "));  // exact fractions were checked
+    // A residual certificate holds no exact fractions: no primes line.
+    Run res = run({"check", std::string(OVERSHOOT_SOURCE_DIR) + "/docs/examples/cycle-bounce-100.json"});
+    CHECK(res.status == 0);
+    CHECK_THAT(res.out, Catch::Contains("residual certificate verified") && !Catch::Contains("primes"));
     // The referee's lines are its own words too.
     Run ref = overshoot::testing::run_shell("python3 " + quote(std::string(OVERSHOOT_SOURCE_DIR) + "/tools/referee.py") +
                                                 " " + quote(f.string()),

@@ -195,9 +195,11 @@ std::string check_text(const Certificate& c, const CheckReport& r) {
     std::string out;
     for (const auto& p : r.passed) out += fmt::format("checked  {}: {}\n", p.item, p.detail);
     // The primes matter only where exact fractions were checked modulo them.
+    bool fractions = false;
+    for (const CertDuel& d : c.duels) fractions = fractions || !d.exact_method.empty();
     std::string primes;
     for (auto p : r.primes) primes += fmt::format("{}{}", primes.empty() ? "" : ", ", p);
-    if (!primes.empty()) out += fmt::format("primes of the modular checks: {}\n", primes);
+    if (fractions && !primes.empty()) out += fmt::format("primes of the modular checks: {}\n", primes);
     if (r.holds)
         out += fmt::format("certificate holds: {}.\n", c.statement);
     else
