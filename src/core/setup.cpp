@@ -102,7 +102,9 @@ Setup resolve_setup(const SetupRequest& r) {
         } catch (const InputError& e) {
             throw InputError(fmt::format("{} {}:{}: {}", from, name, square, e.what()));
         }
-        if (s.starts[i] != 0 || std::count_if(heads.begin(), heads.end(), [&](const auto& h) { return h.first == name; }) > 1)
+        // clang 14 cannot capture a structured binding: compare through a plain reference.
+        const std::string& who = name;
+        if (s.starts[i] != 0 || std::count_if(heads.begin(), heads.end(), [&](const auto& h) { return h.first == who; }) > 1)
             throw InputError(fmt::format("{} {}:{}: '{}' has a head start already", from, name, square, name));
         s.starts[i] = square;
     }
