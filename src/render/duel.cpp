@@ -2,6 +2,7 @@
 
 #include <fmt/format.h>
 
+#include <array>
 #include <cmath>
 
 #include "core/fraction.hpp"
@@ -14,6 +15,22 @@ namespace overshoot::render {
 namespace {
 
 enum class Verdict { a_beats_b, b_beats_a, even, undecided };
+
+// The four outcomes of a duel in the order every format lists them: the label,
+// the probability and, when exact values are given, the fraction.
+struct OutcomeRow {
+    std::string what;
+    long double p;
+    const mpq_class* exact;
+};
+
+std::array<OutcomeRow, 4> outcome_rows(const std::string& na, const std::string& nb, const DuelResult& r,
+                                       const ExactDuel* exact) {
+    return {{{na + " wins", r.p_a_wins, exact ? &exact->p_a_wins : nullptr},
+             {nb + " wins", r.p_b_wins, exact ? &exact->p_b_wins : nullptr},
+             {"tie (shared finish)", r.p_tie, exact ? &exact->p_tie : nullptr},
+             {"neither finishes", r.p_neither, exact ? &exact->p_neither : nullptr}}};
+}
 
 // How the margin's sign is known: from exact fractions, from symmetry (the
 // same option in both seats of a symmetric turn order), or from the bound.
@@ -82,11 +99,8 @@ std::string duel_text(const Board& board, Order order, const Option& a, const Op
     std::string out = describe(board, order) + "\n";
     if (any_head_start(starts)) out += head_starts_text({a.name, b.name}, starts) + "\n";
     out += "\n";
-    std::vector<std::vector<std::string>> rows{
-        {na + " wins", percent(static_cast<double>(r.p_a_wins))},
-        {nb + " wins", percent(static_cast<double>(r.p_b_wins))},
-        {"tie (shared finish)", percent(static_cast<double>(r.p_tie))},
-        {"neither finishes", percent(static_cast<double>(r.p_neither))}};
+    std::vector<std::vector<std::string>> rows;
+    for (const OutcomeRow& o : outcome_rows(na, nb, r, nullptr)) rows.push_back({o.what, percent(static_cast<double>(o.p))});
     out += table({"outcome", "probability"}, rows);
     out += "\n" + verdict_sentence(na, nb, r, read(order, a, b, r, starts, exact), order) + "\n";
     out += fmt::format("error bound on the margin: {:.2g} ({}, method {})\n", r.error_bound(), bound_words(r), to_string(r.method));
@@ -135,15 +149,11 @@ std::string duel_markdown(const Board& board, Order order, const Option& a, cons
     std::string out = md_escape(describe(board, order)) + "\n\n";
     if (any_head_start(starts)) out += md_escape(head_starts_text({a.name, b.name}, starts)) + "\n\n";
     out += exact ? "| outcome | probability | exact |\n|---|---:|---:|\n" : "| outcome | probability |\n|---|---:|\n";
-    auto row = [&](const std::string& what, long double p, const mpq_class* q) {
-        out += fmt::format("| {} | {} |", md_escape(what), percent(static_cast<double>(p)));
-        if (q) out += " " + fraction_string(*q) + " |";
+    for (const OutcomeRow& o : outcome_rows(na, nb, r, exact)) {
+        out += fmt::format("| {} | {} |", md_escape(o.what), percent(static_cast<double>(o.p)));
+        if (o.exact) out += " " + fraction_string(*o.exact) + " |";
         out += "\n";
-    };
-    row(na + " wins", r.p_a_wins, exact ? &exact->p_a_wins : nullptr);
-    row(nb + " wins", r.p_b_wins, exact ? &exact->p_b_wins : nullptr);
-    row("tie (shared finish)", r.p_tie, exact ? &exact->p_tie : nullptr);
-    row("neither finishes", r.p_neither, exact ? &exact->p_neither : nullptr);
+    }
     out += "\n" + md_escape(verdict_sentence(na, nb, r, read(order, a, b, r, starts, exact), order)) + "\n";
     out += fmt::format("\nError bound on the margin: {:.2g} ({}, method {}).\n", r.error_bound(), bound_words(r),
                        md_escape(std::string(to_string(r.method))));
@@ -158,15 +168,11 @@ std::string duel_latex(const Board& board, Order order, const Option& a, const O
     out += "% needs \\usepackage{booktabs}\n";
     out += exact ? "\\begin{tabular}{lrl}\n\\toprule\noutcome & probability & exact \\\\\n\\midrule\n"
                  : "\\begin{tabular}{lr}\n\\toprule\noutcome & probability \\\\\n\\midrule\n";
-    auto row = [&](const std::string& what, long double p, const mpq_class* q) {
-        out += fmt::format("{} & {:.4f}\\%", latex_escape(what), 100 * static_cast<double>(p));
-        if (q) out += " & $" + fraction_string(*q) + "$";
+    for (const OutcomeRow& o : outcome_rows(na, nb, r, exact)) {
+        out += fmt::format("{} & {:.4f}\\%", latex_escape(o.what), 100 * static_cast<double>(o.p));
+        if (o.exact) out += " & $" + fraction_string(*o.exact) + "$";
         out += " \\\\\n";
-    };
-    row(na + " wins", r.p_a_wins, exact ? &exact->p_a_wins : nullptr);
-    row(nb + " wins", r.p_b_wins, exact ? &exact->p_b_wins : nullptr);
-    row("tie (shared finish)", r.p_tie, exact ? &exact->p_tie : nullptr);
-    row("neither finishes", r.p_neither, exact ? &exact->p_neither : nullptr);
+    }
     out += "\\bottomrule\n\\end{tabular}\n\n";
     out += latex_escape(verdict_sentence(na, nb, r, read(order, a, b, r, starts, exact), order)) + "\n";
     out += fmt::format("% error bound on the margin: {:.2g} ({}, method {})\n", r.error_bound(), bound_words(r), to_string(r.method));
