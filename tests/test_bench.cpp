@@ -23,6 +23,9 @@ TEST_CASE("bench: the signature is FNV-1a of the listed results, and they are th
     std::uint64_t h = 1469598103934665603ULL;
     for (const BenchItem& item : rep.items) {
         CHECK(!item.result.empty());
+        // Short items run several times; the time shown is the median, never below the fastest run.
+        CHECK(item.runs >= 1);
+        CHECK(item.fastest <= item.milliseconds);
         for (unsigned char c : item.name + "=" + item.result + ";") {
             h ^= c;
             h *= 1099511628211ULL;

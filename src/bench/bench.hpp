@@ -10,14 +10,16 @@ namespace overshoot {
 
 struct BenchItem {
     std::string name;
-    double milliseconds = 0;
-    std::string result;  // the numbers that went into the signature
+    double milliseconds = 0;  // the median of the runs
+    std::string result;       // the numbers that went into the signature
+    int runs = 1;             // short items run several times
+    double fastest = 0;       // milliseconds of the fastest run
 };
 
 struct BenchReport {
     std::vector<BenchItem> items;
     std::uint64_t signature = 0;
-    double total_milliseconds = 0;
+    double total_milliseconds = 0;  // the sum of the items' medians
 };
 
 BenchReport run_bench();

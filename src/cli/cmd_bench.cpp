@@ -25,10 +25,12 @@ const Registration reg(900, [](CLI::App& app) {
         BenchReport r = run_bench();
         std::string text;
         for (const auto& it : r.items) {
-            text += fmt::format("{:<42} {:>10.2f} ms\n", it.name, it.milliseconds);
+            text += fmt::format("{:<50} {:>10.2f} ms", it.name, it.milliseconds);
+            text += it.runs > 1 ? fmt::format("  (median of {} runs, fastest {:.2f} ms)\n", it.runs, it.fastest)
+                                : std::string("\n");
             if (*verbose) text += fmt::format("    {}\n", it.result);
         }
-        text += fmt::format("{:<42} {:>10.2f} ms\n", "total", r.total_milliseconds);
+        text += fmt::format("{:<50} {:>10.2f} ms\n", "total", r.total_milliseconds);
         text += fmt::format("signature {:016x}\n", r.signature);
         if (*peak) {
             const VectorPeak p = measure_vector_peak();
