@@ -32,12 +32,12 @@ TEST_CASE("bench: the signature is FNV-1a of the listed results, and they are th
         }
     }
     CHECK(h == rep.signature);
-    // The first item is one duel; its four probabilities to 12 digits.
+    // The first item is one duel; its four probabilities to 12 decimal places.
     REQUIRE(rep.items.front().name == "duel 1d6 2d6 on 600");
     Board board = make_board(600, Overshoot::stay, {});
     const DuelResult d = duel(build_chain(board, parse_option("1d6")), build_chain(board, parse_option("2d6")),
                               Order::simultaneous);
-    auto digits = [](long double x) { return fmt::format("{:.12g}", static_cast<double>(x)); };
+    auto digits = [](long double x) { return fmt::format("{:.12f}", static_cast<double>(x)); };
     CHECK(rep.items.front().result ==
           digits(d.p_a_wins) + " " + digits(d.p_b_wins) + " " + digits(d.p_tie) + " " + digits(d.p_neither));
 }

@@ -269,6 +269,60 @@ TEST_CASE("moments from the linear solve agree with the series summed to converg
     }
 }
 
+TEST_CASE("the series' plain block (a convolution, then jumps) equals a step by the merged rows", "[chain]") {
+    // The reference multiplies by the chain's rows one square at a time, in long
+    // double: the transition matrix itself, independent of the plain block.
+    struct Case {
+        const char* spec;
+        int length;
+        Overshoot rule;
+        std::vector<Jump> jumps;
+    };
+    std::vector<Case> cases{
+        {"1d6", 100, Overshoot::bounce, {{4, 25}, {21, 42}, {36, 6}, {51, 67}, {62, 19}, {87, 24}}},
+        {"1d20", 100, Overshoot::bounce, {{4, 25}, {21, 42}, {36, 6}, {51, 67}, {62, 19}, {87, 24}}},
+        {"2d6", 90, Overshoot::stay, {{10, 12}, {30, 90}, {50, 5}}},  // a jump two squares on, one to the finish
+        {"1d6+[0,2]", 60, Overshoot::stay, {{7, 19}, {44, 28}}},     // moves of 0
+        {"{2:1,4:1}", 41, Overshoot::stay, {}},                      // odd squares never reached; stuck at 1 from the end
+        {"{1:3,5:1}", 50, Overshoot::pass, {{49, 0}, {20, 3}}},
+    };
+    for (const auto& cs : cases) {
+        INFO(cs.spec << " on " << cs.length);
+        const Chain c = chain_of(cs.spec, cs.length, cs.rule, cs.jumps);
+        const int n = c.length;
+        std::vector<long double> v(n, 0), next(n, 0);
+        v[c.start] = 1;
+        long double finished = 0, stuck = 0;
+        FastSeries fast(c);
+        Series precise(c);
+        for (int t = 1; t <= 400; ++t) {
+            std::fill(next.begin(), next.end(), 0.0L);
+            long double f = 0;
+            for (int s = 0; s < n; ++s)
+                for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k) {
+                    const long double x = v[s] * c.prob[k];
+                    if (c.dest[k] == n)
+                        f += x;
+                    else if (c.stuck[c.dest[k]])
+                        stuck += x;
+                    else
+                        next[c.dest[k]] += x;
+                }
+            std::swap(v, next);
+            finished += f;
+            const long double ff = fast.step(), fp = precise.step();
+            CHECK(std::fabs(static_cast<double>(ff - f)) <= static_cast<double>(fast.rounding_bound()) + 1e-18);
+            CHECK(std::fabs(static_cast<double>(fp - f)) <= static_cast<double>(precise.rounding_bound()) + 1e-18);
+            CHECK(std::fabs(static_cast<double>(fast.stuck() - stuck)) <=
+                  static_cast<double>(fast.rounding_bound()) + 1e-18);
+            long double diff = 0;  // the whole distribution, in the 1-norm
+            for (int s = 0; s < n; ++s) diff += std::fabs(precise.mass()[s] - v[s]);
+            CHECK(static_cast<double>(diff) <= static_cast<double>(precise.rounding_bound()) + 1e-18);
+        }
+        CHECK(static_cast<double>(fast.finished()) == Approx(static_cast<double>(finished)).margin(1e-13));
+    }
+}
+
 // ---------------------------------------------------------------- profile
 
 TEST_CASE("profile: median, quantiles and nulls", "[chain]") {

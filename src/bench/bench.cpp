@@ -26,9 +26,12 @@ namespace {
 
 std::string digits(double x) { return fmt::format("{:.12g}", x); }
 
+// Twelve decimal places: the engine's bounds are about 1e-12, so a digit below
+// that (a remainder such as p_neither = 1 - win - loss - tie holds only rounding
+// noise there) would change the signature whenever a summation order changes.
 std::string duel_digest(const DuelResult& r) {
-    return digits(static_cast<double>(r.p_a_wins)) + " " + digits(static_cast<double>(r.p_b_wins)) + " " +
-           digits(static_cast<double>(r.p_tie)) + " " + digits(static_cast<double>(r.p_neither));
+    auto fixed = [](long double x) { return fmt::format("{:.12f}", static_cast<double>(x)); };
+    return fixed(r.p_a_wins) + " " + fixed(r.p_b_wins) + " " + fixed(r.p_tie) + " " + fixed(r.p_neither);
 }
 
 }  // namespace

@@ -1,6 +1,7 @@
 #pragma once
 // The fixed benchmark workload. Its signature is a checksum of every result it
-// computes (rounded to 12 significant digits), so a changed number is never
+// computes (12 significant digits; duel probabilities to 12 decimal places,
+// below which a remainder is rounding noise), so a changed number is never
 // silent; every commit that touches computation quotes it.
 #include <cstdint>
 #include <string>

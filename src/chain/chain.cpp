@@ -57,6 +57,32 @@ void mark_stuck(Chain& c) {
     for (int s = 0; s < c.length; ++s) c.stuck[s] = can_finish[s] ? 0 : 1;
 }
 
+void set_plain_block(Chain& c, const Board& board, const Option& option) {
+    const int n = c.length;
+    const long double den = static_cast<long double>(option.denominator);
+    c.plain_end = std::max(0, n - option.max_move());
+    c.move_prob.assign(static_cast<std::size_t>(option.max_move()) + 1, 0);
+    c.move_prob_d.assign(c.move_prob.size(), 0);
+    for (int m = 0; m <= option.max_move(); ++m) {
+        c.move_prob[m] = static_cast<long double>(option.weight[m]) / den;
+        c.move_prob_d[m] = static_cast<double>(c.move_prob[m]);
+    }
+    for (int q = 0; q < n; ++q) {
+        const int to = board.after_jumps[q];
+        if (to != q && (to == n || !c.stuck[to]))
+            c.redirects.push_back({q, to});
+        else if (c.stuck[to])
+            c.redirects.push_back({q, -1});
+    }
+    // Terms per destination when each move is applied on its own (jumps and
+    // overshoot rules followed), the finish included.
+    std::vector<int> in_moves(static_cast<std::size_t>(n) + 1, 0);
+    for (int s = 0; s < n; ++s)
+        for (int m = 0; m <= option.max_move(); ++m)
+            if (option.weight[m] != 0) ++in_moves[destination(board, s, m)];
+    c.max_in_moves = *std::max_element(in_moves.begin(), in_moves.end());
+}
+
 }  // namespace
 
 std::uint64_t chain_memory_estimate(const Board& board, const Option& option) {
@@ -136,6 +162,7 @@ Chain build_chain(const Board& board, const Option& option, int start) {
     for (int s = 0; s < n; ++s)
         for (auto k = c.row_start[s]; k < c.row_start[s + 1]; ++k)
             if (c.dest[k] == n || c.stuck[c.dest[k]]) c.row_stays_live[s] = 0;
+    set_plain_block(c, board, option);
     return c;
 }
 

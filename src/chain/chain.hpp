@@ -38,6 +38,22 @@ struct Chain {
     std::vector<char> row_stays_live;  // 1 when no destination of the row is the finish or stuck
     int max_in_degree = 0;    // most sources feeding one destination (rounding bound)
 
+    // The plain block: from every square below plain_end each move lands on the
+    // board before any jump, so one turn there is the convolution of the masses
+    // with the move distribution, followed by the redirections below. The series
+    // steps it as one vectorised multiply-add per move.
+    int plain_end = 0;                    // max(0, length - max_move)
+    std::vector<long double> move_prob;   // option weight[m] / denominator, m = 0..max_move
+    std::vector<double> move_prob_d;      // the same, rounded to double
+    // Landing squares where mass does not rest: jump sources (to: the square
+    // after the jumps, or length for the finish) and stuck squares (to: -1).
+    struct Redirect {
+        int from = 0, to = 0;
+    };
+    std::vector<Redirect> redirects;      // sorted by `from`
+    int max_in_moves = 0;  // most (square, move) pairs feeding one destination: the
+                           // terms of one sum when moves are applied one at a time
+
     int rows() const { return length; }
 };
 

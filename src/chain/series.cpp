@@ -4,6 +4,8 @@
 #include <limits>
 #include <type_traits>
 
+#include "core/kernels.hpp"
+
 namespace overshoot {
 
 long double gamma_ld(double n) {
@@ -33,6 +35,18 @@ const Real* probabilities(const Chain& c) {
     else
         return c.prob.data();
 }
+template <class Real>
+const Real* move_probabilities(const Chain& c) {
+    if constexpr (std::is_same_v<Real, double>)
+        return c.move_prob_d.data();
+    else
+        return c.move_prob.data();
+}
+// dst[i] += p * src[i]: vectorised for double; long double has no vector unit.
+inline void add_scaled(double* dst, const double* src, double p, int n) { axpy(dst, src, p, n); }
+inline void add_scaled(long double* __restrict dst, const long double* __restrict src, long double p, int n) {
+    for (int i = 0; i < n; ++i) dst[i] += p * src[i];
+}
 }  // namespace
 
 template <class Real>
@@ -45,9 +59,11 @@ BasicSeries<Real>::BasicSeries(const Chain& c, int start) : c_(&c), v_(c.length,
     } else {
         v_[start] = 1;
     }
-    // Each destination sums at most max_in_degree products, each product has one
-    // rounding, and the probabilities themselves carry one: gamma_{d+2} per turn.
-    gamma_ = gamma_of<Real>(c.max_in_degree + 3);
+    // Each destination sums at most max_in_moves products (moves applied one at
+    // a time in the plain block, merged rows elsewhere: never more terms), each
+    // product has one rounding, and the probabilities themselves carry one:
+    // gamma_{d+2} per turn (docs/method.md).
+    gamma_ = gamma_of<Real>(std::max(c.max_in_degree, c.max_in_moves) + 3);
     trim_ = Real(1e-20L);
 }
 
@@ -60,7 +76,41 @@ long double BasicSeries<Real>::step() {
     if (alive_ == 0) return 0;
     int nlo = n, nhi = -1;
     Real fin = 0, st = 0, processed = 0;
-    for (int s = lo_; s <= hi_; ++s) {
+    // The plain block: one multiply-add over the support per move, then the
+    // mass that landed on jump sources and stuck squares is moved on.
+    int from = lo_;
+    const int plain_hi = std::min(hi_, c.plain_end - 1);
+    if (lo_ <= plain_hi) {
+        const Real* mp = move_probabilities<Real>(c);
+        const int width = plain_hi - lo_ + 1;
+        for (int s = lo_; s <= plain_hi; ++s) processed += v_[s];
+        for (int m = 0; m <= c.max_move; ++m) {
+            if (mp[m] == 0) continue;
+            add_scaled(next_.data() + lo_ + m, v_.data() + lo_, mp[m], width);
+            work_ += static_cast<std::uint64_t>(width);
+            nlo = std::min(nlo, lo_ + m);
+            nhi = std::max(nhi, plain_hi + m);
+        }
+        std::fill(v_.begin() + lo_, v_.begin() + plain_hi + 1, Real(0));
+        const auto first = std::lower_bound(c.redirects.begin(), c.redirects.end(), nlo,
+                                            [](const Chain::Redirect& r, int q) { return r.from < q; });
+        for (auto r = first; r != c.redirects.end() && r->from <= nhi; ++r) {
+            const Real x = next_[r->from];
+            if (x == 0) continue;
+            next_[r->from] = 0;
+            if (r->to == n) {
+                fin += x;
+            } else if (r->to < 0) {
+                st += x;
+            } else {
+                next_[r->to] += x;
+                nlo = std::min(nlo, r->to);
+                nhi = std::max(nhi, r->to);
+            }
+        }
+        from = plain_hi + 1;
+    }
+    for (int s = from; s <= hi_; ++s) {
         const Real m = v_[s];
         if (m == 0) continue;
         v_[s] = 0;

@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 
+#include "core/kernels.hpp"
 #include "core/limits.hpp"
 #include "core/parallel.hpp"
 #include "lengths/rows.hpp"

@@ -94,12 +94,7 @@ DistanceModel build_distance_model(const Option& o, Overshoot rule, int L) {
     return d;
 }
 
-// dst[i] += p * src[i]; restrict lets the compiler use vector instructions,
-// and the AVX2 clone (no FMA contraction in ISO mode) gives the same bits.
-__attribute__((target_clones("avx2", "default"), optimize("O3", "tree-vectorize"))) void axpy(
-    double* __restrict dst, const double* __restrict src, double p, int n) {
-    for (int i = 0; i < n; ++i) dst[i] += p * src[i];
-}
+// The two-vector kernels of step_two; axpy itself is in core/kernels.
 __attribute__((target_clones("avx2", "default"), optimize("O3", "tree-vectorize"))) void axpy2(
     double* __restrict d1, const double* __restrict s1, double* __restrict d2, const double* __restrict s2, double p,
     int n) {

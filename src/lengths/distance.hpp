@@ -37,9 +37,6 @@ struct DistanceModel {
 
 DistanceModel build_distance_model(const Option& o, Overshoot rule, int L);
 
-// dst[i] += p * src[i] and friends, vectorised (distance.cpp).
-void axpy(double* __restrict dst, const double* __restrict src, double p, int n);
-
 // (df, dg) = P (sf, sg) on distances lo..top (P: one turn, finishing mass dropped).
 void step_two(const DistanceModel& o, const double* sf, const double* sg, double* df, double* dg, int lo, int top);
 
