@@ -24,6 +24,14 @@ Chain chain_of(const char* spec, int length, Overshoot rule = Overshoot::stay, s
     return build_chain(make_board(length, rule, std::move(jumps)), parse_option(spec));
 }
 
+// An option on a board, for the tests that run one check over many boards.
+struct BoardCase {
+    const char* spec;
+    int length;
+    Overshoot rule;
+    std::vector<Jump> jumps;
+};
+
 // One turn from square s as {destination: probability}.
 std::map<int, double> row(const Chain& c, int s) {
     std::map<int, double> r;
@@ -180,13 +188,7 @@ TEST_CASE("moments agree with the fundamental matrix (Kemeny and Snell 1960)", "
     // N = (I - Q)^{-1}, dense via Eigen; second moment of the absorption time
     // (2N - I) t (Kemeny and Snell, Finite Markov Chains, 1960, ch. III; the
     // theorem number 3.3.5 is from memory).
-    struct Case {
-        const char* spec;
-        int length;
-        Overshoot rule;
-        std::vector<Jump> jumps;
-    };
-    std::vector<Case> cases{
+    std::vector<BoardCase> cases{
         {"1d6", 30, Overshoot::stay, {}},
         {"1d6", 30, Overshoot::bounce, {{5, 22}, {27, 3}}},
         {"1d4+[0,2]", 25, Overshoot::pass, {{10, 2}, {19, 24}}},
@@ -233,13 +235,7 @@ TEST_CASE("moments agree with the fundamental matrix (Kemeny and Snell 1960)", "
 }
 
 TEST_CASE("moments from the linear solve agree with the series summed to convergence", "[chain]") {
-    struct Case {
-        const char* spec;
-        int length;
-        Overshoot rule;
-        std::vector<Jump> jumps;
-    };
-    std::vector<Case> cases{
+    std::vector<BoardCase> cases{
         {"1d6", 100, Overshoot::stay, {}},
         {"2d6", 100, Overshoot::stay, {}},
         {"3d6", 73, Overshoot::stay, {{20, 50}, {60, 11}}},
@@ -272,13 +268,7 @@ TEST_CASE("moments from the linear solve agree with the series summed to converg
 TEST_CASE("the series' plain block (a convolution, then jumps) equals a step by the merged rows", "[chain]") {
     // The reference multiplies by the chain's rows one square at a time, in long
     // double: the transition matrix itself, independent of the plain block.
-    struct Case {
-        const char* spec;
-        int length;
-        Overshoot rule;
-        std::vector<Jump> jumps;
-    };
-    std::vector<Case> cases{
+    std::vector<BoardCase> cases{
         {"1d6", 100, Overshoot::bounce, {{4, 25}, {21, 42}, {36, 6}, {51, 67}, {62, 19}, {87, 24}}},
         {"1d20", 100, Overshoot::bounce, {{4, 25}, {21, 42}, {36, 6}, {51, 67}, {62, 19}, {87, 24}}},
         {"2d6", 90, Overshoot::stay, {{10, 12}, {30, 90}, {50, 5}}},  // a jump two squares on, one to the finish
