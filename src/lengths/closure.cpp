@@ -80,37 +80,69 @@ __attribute__((target_clones("avx512f", "avx2", "default"), optimize("fp-contrac
     *reinterpret_cast<v8u*>(ol + 8) = load8(ol + 8) + l1;
 }
 
-// dst[i] += a[i] b[i]: one round's share of a row of K.
-__attribute__((target_clones("avx2", "default"), optimize("O3", "tree-vectorize", "fp-contract=off"))) void multiply_add(
-    double* __restrict dst, const double* __restrict a, const double* __restrict b, int n) {
-    for (int i = 0; i < n; ++i) dst[i] += a[i] * b[i];
-}
-
-// Two rounds in one pass: dst[i] = (dst[i] + a[i] b[i]) + c[i] e[i], the same
-// bits as two passes, with one load and store of dst instead of two.
-__attribute__((target_clones("avx2", "default"), optimize("O3", "tree-vectorize", "fp-contract=off"))) void multiply_add2(
-    double* __restrict dst, const double* __restrict a, const double* __restrict b, const double* __restrict c,
-    const double* __restrict e, int n) {
-    for (int i = 0; i < n; ++i) dst[i] = (dst[i] + a[i] * b[i]) + c[i] * e[i];
-}
-
-// K(u, v) by rows u = 0..rows-1, each on its window [lo[u], hi[u]] (empty when hi < lo).
-struct Banded {
+// Convolution powers side by side, each with `power_pad` zeros on both sides,
+// so that a block of 32 entries that meets a power's window reads zeros where
+// it runs past it: at(s)[u] is p^{*s}(u) for u in [lo_s - power_pad, hi_s + power_pad].
+constexpr int power_pad = 32;
+struct PaddedPowers {
+    std::vector<double> buf;
+    std::vector<std::ptrdiff_t> base;  // buf index of u = 0 of round s (read only for u in range)
     std::vector<int> lo, hi;
-    std::vector<std::size_t> off;
-    std::vector<double> k;
-    const double* row(int u) const { return k.data() + off[u] - lo[u]; }  // row(u)[v], v in [lo, hi]
+    const double* at(int s) const { return buf.data() + base[s]; }
 };
 
-void allocate(Banded& m, const char* what) {
+void pad_powers(const std::vector<Power>& p, int rounds, PaddedPowers& out) {
     std::size_t total = 0;
-    m.off.assign(m.lo.size(), 0);
-    for (std::size_t u = 0; u < m.lo.size(); ++u) {
-        m.off[u] = total;
-        if (m.hi[u] >= m.lo[u]) total += static_cast<std::size_t>(m.hi[u] - m.lo[u] + 1);
+    for (int s = 0; s < rounds; ++s) total += p[s].p.size() + 2 * power_pad;
+    out.buf.assign(total, 0.0);
+    out.base.resize(static_cast<std::size_t>(rounds));
+    out.lo.resize(out.base.size());
+    out.hi.resize(out.base.size());
+    std::size_t at = 0;
+    for (int s = 0; s < rounds; ++s) {
+        std::copy(p[s].p.begin(), p[s].p.end(), out.buf.begin() + static_cast<std::ptrdiff_t>(at + power_pad));
+        out.base[s] = static_cast<std::ptrdiff_t>(at + power_pad) - p[s].lo;
+        out.lo[s] = p[s].lo;
+        out.hi[s] = p[s].lo + static_cast<int>(p[s].p.size()) - 1;
+        at += p[s].p.size() + 2 * power_pad;
     }
-    limits::check_memory(total * sizeof(double), what);
-    m.k.assign(total, 0.0);
+}
+
+// Eight rows of K by offsets delta0 .. delta0 + 7 at once: out[r][u] = sum
+// over the listed rounds, in their order, of a[i][u] b[i][u - delta0 - r],
+// for u in [ulo, uhi] and up to 15 past uhi. A round is listed when its span
+// [lo[i], hi[i]] (the union over the eight rows) meets a block of 16 entries;
+// where a row's own span does not reach, the block reads zeros (the powers are
+// padded) and a product with a zero adds +0 to a non-negative sum, so each
+// entry gets exactly the roundings of adding its rounds one by one in order of
+// s. The eight rows read the same slice of a and overlapping slices of b: one
+// pass over the powers from the second-level cache serves them all.
+__attribute__((target_clones("avx512f", "avx2", "default"), optimize("fp-contract=off"))) void k_rows8(
+    const double* const* a, const double* const* b, const int* lo, const int* hi, const int* lo_after, int n,
+    int delta0, int ulo, int uhi, double* const* out) {
+    typedef double v8 __attribute__((vector_size(64)));
+    typedef double v8u __attribute__((vector_size(64), aligned(8)));
+    auto load8 = [](const double* p) { return *reinterpret_cast<const v8u*>(p); };
+    int begin = 0;
+    for (int u0 = ulo; u0 <= uhi; u0 += 16) {
+        // Rounds that ended before this block never come back (the block moves right).
+        while (begin < n && hi[begin] < u0) ++begin;
+        v8 s[8][2];
+        _Pragma("GCC unroll 8") for (int r = 0; r < 8; ++r) s[r][0] = s[r][1] = v8{0, 0, 0, 0, 0, 0, 0, 0};
+        for (int i = begin; i < n && lo_after[i] <= u0 + 15; ++i) {
+            if (hi[i] < u0 || lo[i] > u0 + 15) continue;
+            const v8 x0 = load8(a[i] + u0), x1 = load8(a[i] + u0 + 8);
+            const double* y = b[i] + u0 - delta0;
+            _Pragma("GCC unroll 8") for (int r = 0; r < 8; ++r) {
+                s[r][0] += x0 * load8(y - r);
+                s[r][1] += x1 * load8(y - r + 8);
+            }
+        }
+        _Pragma("GCC unroll 8") for (int r = 0; r < 8; ++r) {
+            *reinterpret_cast<v8u*>(out[r] + u0) = s[r][0];
+            *reinterpret_cast<v8u*>(out[r] + u0 + 8) = s[r][1];
+        }
+    }
 }
 
 double spread(double sd, double s) { return 20 * sd * std::sqrt(std::max(s, 0.0)) + 1; }
@@ -175,121 +207,134 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
     // K(u, v) = sum_s p_A^{*s}(u) p_B^{*s}(v) by offsets delta = u - v: row
     // delta holds K(u, u - delta) by u, so each round adds a product of two
     // contiguous slices. For a fixed delta the sum over the band is then a
-    // convolution (rows: d = u + x; columns: d = u - delta + y).
-    int dlo = 1 << 30, dhi = -(1 << 30);
-    for (int s = 0; s < rounds; ++s) {
-        dlo = std::min(dlo, pa[s].lo - (pb[s].lo + static_cast<int>(pb[s].p.size()) - 1));
-        dhi = std::max(dhi, pa[s].lo + static_cast<int>(pa[s].p.size()) - 1 - pb[s].lo);
-    }
-    Banded D;  // D.row(delta - dlo)[u] = K(u, u - delta)
-    D.lo.assign(static_cast<std::size_t>(dhi - dlo) + 1, umax + 1);
-    D.hi.assign(D.lo.size(), -1);
-    // The u of round s on row delta: supp a_s and supp b_s + delta.
-    auto span = [&](int s, int delta, int& lo, int& hi) {
-        lo = std::max(pa[s].lo, pb[s].lo + delta);
-        hi = std::min(pa[s].lo + static_cast<int>(pa[s].p.size()), pb[s].lo + static_cast<int>(pb[s].p.size()) + delta) - 1;
-    };
-    for (int s = 0; s < rounds; ++s) {
-        const int from = pa[s].lo - (pb[s].lo + static_cast<int>(pb[s].p.size()) - 1);
-        const int to = pa[s].lo + static_cast<int>(pa[s].p.size()) - 1 - pb[s].lo;
-        for (int delta = from; delta <= to; ++delta) {
-            int lo, hi;
-            span(s, delta, lo, hi);
-            const auto e = static_cast<std::size_t>(delta - dlo);
-            D.lo[e] = std::min(D.lo[e], lo);
-            D.hi[e] = std::max(D.hi[e], hi);
-        }
-    }
-    const int pad = std::max(za, zb) + 32;
-    for (std::size_t e = 0; e < D.lo.size(); ++e)
-        if (D.hi[e] >= D.lo[e]) {
-            D.lo[e] -= pad;
-            D.hi[e] += pad;
-        }
-    allocate(D, "the end-zone closure of this sweep");
-    // Row by row, rounds inner: the row stays in the first-level cache while
-    // every round adds to it (each entry adds its rounds in order of s).
+    // convolution (rows: d = u + x; columns: d = u - delta + y). Rows are built
+    // one at a time and summed at once (K is never stored whole).
     std::vector<int> round_from(static_cast<std::size_t>(rounds)), round_to(round_from.size());
+    int dlo = 1 << 30, dhi = -(1 << 30);
     for (int s = 0; s < rounds; ++s) {
         round_from[s] = pa[s].lo - (pb[s].lo + static_cast<int>(pb[s].p.size()) - 1);
         round_to[s] = pa[s].lo + static_cast<int>(pa[s].p.size()) - 1 - pb[s].lo;
+        dlo = std::min(dlo, round_from[s]);
+        dhi = std::max(dhi, round_to[s]);
     }
-    // Rows in blocks of 64 offsets, one job each (a job writes only its rows:
-    // the same bits whatever the number of threads).
-    const std::size_t offsets = D.lo.size(), blocks = (offsets + 63) / 64;
-    std::vector<std::uint64_t> block_madds(blocks, 0);
+    PaddedPowers qa, qb;
+    pad_powers(pa, rounds, qa);
+    pad_powers(pb, rounds, qb);
+    limits::check_memory((qa.buf.size() + qb.buf.size()) * sizeof(double), "the end-zone closure of this sweep");
+    const std::size_t offsets = static_cast<std::size_t>(dhi - dlo) + 1, blocks = (offsets + 63) / 64;
+    // A row lies on [u_lo, u_hi] (the union of its rounds' spans), stored with
+    // `pad` zeros on both sides: the band sums read that far past it.
+    const int pad = std::max(za, zb) + 32;
     std::vector<double> row_cut(offsets, 0.0);
-    std::vector<int> klo(offsets), khi(offsets);
-    parallel_for(
-        blocks, threads,
-        [&](std::size_t c) {
-            for (std::size_t e = 64 * c; e < std::min(offsets, 64 * c + 64); ++e) {
-                klo[e] = D.lo[e] + pad;
-                khi[e] = D.hi[e] - pad;
-                if (D.hi[e] < D.lo[e]) continue;
-                const int delta = static_cast<int>(e) + dlo;
-                double* row = D.k.data() + D.off[e] - D.lo[e];
-                // Round s on [lo, hi] of this row; rounds go in pairs (each entry
-                // still adds its rounds in order of s).
-                auto one = [&](int s, int lo, int hi) {
-                    if (lo <= hi)
-                        multiply_add(row + lo, pa[s].p.data() + (lo - pa[s].lo),
-                                     pb[s].p.data() + (lo - delta - pb[s].lo), hi - lo + 1);
-                };
-                int held = -1, hlo = 0, hhi = -1;
-                for (int s = 0; s < rounds; ++s) {
-                    if (delta < round_from[s] || delta > round_to[s]) continue;
-                    int lo, hi;
-                    span(s, delta, lo, hi);
-                    if (lo > hi) continue;
-                    block_madds[c] += static_cast<std::uint64_t>(hi - lo + 1);
-                    if (held < 0) {
-                        held = s;
-                        hlo = lo;
-                        hhi = hi;
-                        continue;
-                    }
-                    // Both rounds on the common part, each alone on the rest:
-                    // the held round's own part first, then the fused part, then s's.
-                    const int clo = std::max(hlo, lo), chi = std::min(hhi, hi);
-                    if (clo > chi) {
-                        one(held, hlo, hhi);
-                        one(s, lo, hi);
-                    } else {
-                        one(held, hlo, clo - 1);
-                        one(held, chi + 1, hhi);
-                        one(s, lo, clo - 1);
-                        multiply_add2(row + clo, pa[held].p.data() + (clo - pa[held].lo),
-                                      pb[held].p.data() + (clo - delta - pb[held].lo), pa[s].p.data() + (clo - pa[s].lo),
-                                      pb[s].p.data() + (clo - delta - pb[s].lo), chi - clo + 1);
-                        one(s, chi + 1, hi);
-                    }
-                    held = -1;
-                }
-                if (held >= 0) one(held, hlo, hhi);
-                // Trim the row's edges (their sum goes to the bound: a start reads each entry at most once).
-                while (klo[e] <= khi[e] && row[klo[e]] < trim_k) {
-                    row_cut[e] += row[klo[e]];
-                    row[klo[e]++] = 0.0;
-                }
-                while (khi[e] >= klo[e] && row[khi[e]] < trim_k) {
-                    row_cut[e] += row[khi[e]];
-                    row[khi[e]--] = 0.0;
-                }
+    std::vector<int> klo(offsets, 0), khi(offsets, -1);
+    std::vector<std::uint64_t> block_madds(blocks, 0);
+    // The rounds of eight rows, in order of s, with the union of their spans.
+    struct RowGroup {
+        std::vector<const double*> a, b;
+        std::vector<int> lo, hi, lo_after;
+        std::vector<double> k;  // eight padded rows
+        std::size_t len = 0;    // of one row
+        const double* row[8] = {};  // row[r][u] = K(u, u - delta0 - r), null when empty
+    };
+    // Builds and trims rows e0 .. e0 + 7 (those below `offsets`) into w.
+    auto build_rows = [&](std::size_t e0, RowGroup& w, std::uint64_t& madds) {
+        const int delta0 = static_cast<int>(e0) + dlo;
+        const int rows = static_cast<int>(std::min<std::size_t>(8, offsets - e0));
+        w.a.clear();
+        w.b.clear();
+        w.lo.clear();
+        w.hi.clear();
+        for (int r = 0; r < 8; ++r) w.row[r] = nullptr;
+        int ulo = 1 << 30, uhi = -(1 << 30);
+        for (int s = 0; s < rounds; ++s) {
+            if (delta0 + rows - 1 < round_from[s] || delta0 > round_to[s]) continue;
+            int glo = 1 << 30, ghi = -(1 << 30);
+            for (int r = 0; r < rows; ++r) {
+                const int delta = delta0 + r;
+                if (delta < round_from[s] || delta > round_to[s]) continue;
+                const int lo = std::max(qa.lo[s], qb.lo[s] + delta), hi = std::min(qa.hi[s], qb.hi[s] + delta);
+                if (lo > hi) continue;
+                glo = std::min(glo, lo);
+                ghi = std::max(ghi, hi);
+                madds += static_cast<std::uint64_t>(hi - lo + 1);
             }
-        },
-        cancel);
-    if (cancel && cancel->load()) throw Cancelled{};
-    double cut_k = 0;
-    int klo_all = 1 << 30, khi_all = -(1 << 30);
-    for (std::size_t e = 0; e < offsets; ++e) {
-        cut_k += row_cut[e];
-        if (khi[e] >= klo[e]) {
-            klo_all = std::min(klo_all, static_cast<int>(e) + dlo);
-            khi_all = std::max(khi_all, static_cast<int>(e) + dlo);
+            if (glo > ghi) continue;
+            w.a.push_back(qa.at(s));
+            w.b.push_back(qb.at(s));
+            w.lo.push_back(glo);
+            w.hi.push_back(ghi);
+            ulo = std::min(ulo, glo);
+            uhi = std::max(uhi, ghi);
         }
+        for (int r = 0; r < rows; ++r) {
+            klo[e0 + r] = 0;
+            khi[e0 + r] = -1;
+            row_cut[e0 + r] = 0;
+        }
+        if (ulo > uhi) return;
+        const int n = static_cast<int>(w.lo.size());
+        w.lo_after.resize(static_cast<std::size_t>(n));
+        for (int i = n - 1, m = 1 << 30; i >= 0; --i) w.lo_after[i] = m = std::min(m, w.lo[i]);
+        // Padding, the row, and the last block's overrun (products of zeros).
+        w.len = static_cast<std::size_t>(uhi - ulo + 1) + 2 * static_cast<std::size_t>(pad) + 16;
+        if (w.k.size() < 8 * w.len) w.k.resize(8 * w.len);
+        double* out[8];
+        const int written = ulo + (uhi - ulo) / 16 * 16 + 15;
+        for (int r = 0; r < 8; ++r) {
+            out[r] = w.k.data() + r * w.len + pad - ulo;  // out[r][u]
+            std::fill(out[r] + ulo - pad, out[r] + ulo, 0.0);
+            std::fill(out[r] + written + 1, out[r] + uhi + pad + 1, 0.0);
+        }
+        k_rows8(w.a.data(), w.b.data(), w.lo.data(), w.hi.data(), w.lo_after.data(), n, delta0, ulo, uhi, out);
+        // Trim each row's edges (their sum goes to the bound: a start reads each entry at most once).
+        for (int r = 0; r < rows; ++r) {
+            double* row = out[r];
+            int lo = ulo, hi = uhi;
+            double c = 0;
+            while (lo <= hi && row[lo] < trim_k) {
+                c += row[lo];
+                row[lo++] = 0.0;
+            }
+            while (hi >= lo && row[hi] < trim_k) {
+                c += row[hi];
+                row[hi--] = 0.0;
+            }
+            row_cut[e0 + r] = c;
+            if (lo > hi) continue;
+            klo[e0 + r] = lo;
+            khi[e0 + r] = hi;
+            w.row[r] = row;
+        }
+    };
+    // The first and last rows that are not empty once trimmed set how far the
+    // strip must go; the empty rows outside them are done (their mass is cut).
+    int klo_all = 1 << 30, khi_all = -(1 << 30);
+    std::size_t e_first = offsets, e_last = 0;
+    {
+        RowGroup w;
+        std::uint64_t scan_madds = 0;  // the first and last groups are built twice
+        for (std::size_t e0 = 0; e0 < offsets && e_first == offsets; e0 += 8) {
+            build_rows(e0, w, scan_madds);
+            for (int r = 0; r < 8 && e_first == offsets; ++r)
+                if (w.row[r]) e_first = e0 + static_cast<std::size_t>(r);
+        }
+        if (e_first < offsets) {
+            bool found = false;
+            for (std::size_t e0 = (offsets - 1) / 8 * 8;; e0 -= 8) {
+                build_rows(e0, w, scan_madds);
+                for (int r = 7; r >= 0 && !found; --r)
+                    if (w.row[r]) {
+                        e_last = e0 + static_cast<std::size_t>(r);
+                        found = true;
+                    }
+                if (found || e0 == 0) break;
+            }
+            klo_all = static_cast<int>(e_first) + dlo;
+            khi_all = static_cast<int>(e_last) + dlo;
+        }
+        counts.multiply_adds += scan_madds;
     }
-    for (std::uint64_t m : block_madds) counts.multiply_adds += m;
+    if (cancel && cancel->load()) throw Cancelled{};
     // The strip, on the columns and rows the sums below read: band rows up
     // to y = 2za + delta, band columns up to x = 2zb - delta.
     const int used_lo = std::min(klo_all, 0), used_hi = std::max(khi_all, 0);
@@ -301,16 +346,17 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
     // order afterwards: a start's sum adds at most 64 + blocks terms in a row,
     // the same bits whatever the number of threads.
     const std::size_t width = static_cast<std::size_t>(L) + 48;
+    limits::check_memory(2 * blocks * width * sizeof(double), "the end-zone closure of this sweep");
     std::vector<double> part_w(blocks * width, 0.0), part_l(part_w.size(), 0.0);
     std::vector<int> block_widest(blocks, 0);
     const int nx = std::max(0, std::min(L, 2 * za) - za), ny = std::max(0, std::min(L, 2 * zb) - zb);
-    std::fill(block_madds.begin(), block_madds.end(), 0);
     parallel_for(
         blocks, threads,
         [&](std::size_t c) {
             double* out_w = part_w.data() + c * width;
             double* out_l = part_l.data() + c * width;
             std::vector<double> fw(static_cast<std::size_t>(std::max(nx, ny)) + 1), fl(fw.size());
+            RowGroup w;
             // out[d] += sum_j k[d - p0 - j + shift] f[j] for d in [from, to] (k: the delta row by u).
             auto convolve = [&](const double* k, int k_lo, int k_hi, int n, int p0, int shift) {
                 // Only the taps from the first to the last nonzero one (a zero tap adds +0).
@@ -327,10 +373,13 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
                 }
                 block_widest[c] = std::max(block_widest[c], n);
             };
+            std::size_t built = offsets;  // the group in w
             for (std::size_t e = 64 * c; e < std::min(offsets, 64 * c + 64); ++e) {
-                if (khi[e] < klo[e]) continue;
+                if (e < e_first || e > e_last) continue;
+                if (built != e / 8) build_rows((built = e / 8) * 8, w, block_madds[c]);
+                const double* k = w.row[e % 8];  // k[u], u in [lo, hi] (padding included)
+                if (!k) continue;
                 const int delta = static_cast<int>(e) + dlo;
-                const double* k = D.row(static_cast<int>(e));  // k[u], u in [lo, hi] (padding included)
                 // Band rows: x = za + 1 + j, y = x + delta in (zb, L].
                 for (int j = 0; j < nx; ++j) {
                     const int x = za + 1 + j, y = x + delta;
@@ -353,6 +402,8 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
         },
         cancel);
     if (cancel && cancel->load()) throw Cancelled{};
+    double cut_k = 0;
+    for (std::size_t e = 0; e < offsets; ++e) cut_k += row_cut[e];
     int widest = 0;
     for (std::size_t c = 0; c < blocks; ++c) {
         counts.multiply_adds += block_madds[c];
