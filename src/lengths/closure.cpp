@@ -181,7 +181,13 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
     depth.assign(static_cast<std::size_t>(L) + 1, 0.0);
     cut.assign(static_cast<std::size_t>(L) + 1, 0.0);
     const int first = std::max(za, zb) + 1;
-    Strip strip;
+    // Buffers kept between calls on this thread, as the programme's rows
+    // (rows.cpp). Jobs on other threads read them through these references
+    // (a thread_local named in a job would be that thread's own).
+    static thread_local Strip strip_kept;
+    static thread_local PaddedPowers qa_kept, qb_kept;
+    static thread_local std::vector<double> part_w_kept, part_l_kept;
+    Strip& strip = strip_kept;
     strip.za = za;
     strip.zb = zb;
     if (first > L) {
@@ -217,7 +223,7 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
         dlo = std::min(dlo, round_from[s]);
         dhi = std::max(dhi, round_to[s]);
     }
-    PaddedPowers qa, qb;
+    PaddedPowers &qa = qa_kept, &qb = qb_kept;
     pad_powers(pa, rounds, qa);
     pad_powers(pb, rounds, qb);
     limits::check_memory((qa.buf.size() + qb.buf.size()) * sizeof(double), "the end-zone closure of this sweep");
@@ -311,7 +317,7 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
     int klo_all = 1 << 30, khi_all = -(1 << 30);
     std::size_t e_first = offsets, e_last = 0;
     {
-        RowGroup w;
+        static thread_local RowGroup w;
         std::uint64_t scan_madds = 0;  // the first and last groups are built twice
         for (std::size_t e0 = 0; e0 < offsets && e_first == offsets; e0 += 8) {
             build_rows(e0, w, scan_madds);
@@ -347,7 +353,9 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
     // the same bits whatever the number of threads.
     const std::size_t width = static_cast<std::size_t>(L) + 48;
     limits::check_memory(2 * blocks * width * sizeof(double), "the end-zone closure of this sweep");
-    std::vector<double> part_w(blocks * width, 0.0), part_l(part_w.size(), 0.0);
+    std::vector<double>&part_w = part_w_kept, &part_l = part_l_kept;
+    part_w.assign(blocks * width, 0.0);
+    part_l.assign(part_w.size(), 0.0);
     std::vector<int> block_widest(blocks, 0);
     const int nx = std::max(0, std::min(L, 2 * za) - za), ny = std::max(0, std::min(L, 2 * zb) - zb);
     parallel_for(
@@ -356,7 +364,7 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
             double* out_w = part_w.data() + c * width;
             double* out_l = part_l.data() + c * width;
             std::vector<double> fw(static_cast<std::size_t>(std::max(nx, ny)) + 1), fl(fw.size());
-            RowGroup w;
+            static thread_local RowGroup w;
             // out[d] += sum_j k[d - p0 - j + shift] f[j] for d in [from, to] (k: the delta row by u).
             auto convolve = [&](const double* k, int k_lo, int k_hi, int n, int p0, int shift) {
                 // Only the taps from the first to the last nonzero one (a zero tap adds +0).
@@ -368,8 +376,14 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
                 p0 += j0;
                 const int from = std::max(first, k_lo + p0 - shift), to = std::min(L, k_hi + p0 + n - 1 - shift);
                 for (int d0 = from; d0 <= to; d0 += 16) {
-                    conv16(k + (d0 - p0 + shift), fw.data() + j0, fl.data() + j0, n, out_w + d0, out_l + d0);
-                    block_madds[c] += 32 * static_cast<std::uint64_t>(n);
+                    // Only the taps that meet the row for some start of the block:
+                    // the others multiply zeros and add +0.
+                    const int jlo = std::max(0, d0 - p0 + shift - k_hi);
+                    const int jhi = std::min(n - 1, d0 + 15 - p0 + shift - k_lo);
+                    if (jlo > jhi) continue;
+                    conv16(k + (d0 - p0 + shift) - jlo, fw.data() + j0 + jlo, fl.data() + j0 + jlo, jhi - jlo + 1,
+                           out_w + d0, out_l + d0);
+                    block_madds[c] += 32 * static_cast<std::uint64_t>(jhi - jlo + 1);
                 }
                 block_widest[c] = std::max(block_widest[c], n);
             };
@@ -434,6 +448,8 @@ ClosureCounts closure_rows(const DistanceModel& A, const DistanceModel& B, bool 
         depth[d] = reach * k + sums;
         cut[d] = lost;
     }
+    for (auto* v : {&strip.row_w, &strip.row_l, &strip.col_w, &strip.col_l, &part_w, &part_l, &qa.buf, &qb.buf})
+        if (v->capacity() * sizeof(double) > (std::size_t{32} << 20)) std::vector<double>().swap(*v);
     return counts;
 }
 

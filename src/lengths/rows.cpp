@@ -189,6 +189,70 @@ inline void zone_terms(const DistanceModel& B, int b, const double* vw, const do
 }
 
 
+// The second piece's zone rows on a finished row v, for b in [lo, hi), when
+// every zone row is the piece's moves below b in increasing order followed by
+// its finishing entry (zone_as_moves): y(b) = sum_i mp[i] v(b - mv[i]) over
+// the moves mv[i] < b, then yl(b) += fin(b). Lanes b side by side; a lane adds
+// +0 for a move that does not fit (v is 0 at 0 and below: the caller pads 8
+// zeros before the row), so each lane adds exactly zone_terms' terms in its
+// order: the same bits.
+ROW_KERNEL void zone_moves(const double* vw, const double* vl, double* __restrict yw, double* __restrict yl,
+                           const int* mv, const double* mp, int nm, const double* fin, int lo, int hi) {
+    int b = lo;
+    for (; b + 8 <= hi; b += 8) {
+        v4 w0 = {0, 0, 0, 0}, w1 = w0, l0 = w0, l1 = w0;
+        for (int i = 0; i < nm && mv[i] <= b + 7; ++i) {
+            w0 += mp[i] * load(vw + b - mv[i]);
+            w1 += mp[i] * load(vw + b + 4 - mv[i]);
+            l0 += mp[i] * load(vl + b - mv[i]);
+            l1 += mp[i] * load(vl + b + 4 - mv[i]);
+        }
+        store(yw + b, w0);
+        store(yw + b + 4, w1);
+        store(yl + b, l0 + load(fin + b));
+        store(yl + b + 4, l1 + load(fin + b + 4));
+    }
+    for (; b < hi; ++b) {
+        double w = 0, l = 0;
+        for (int i = 0; i < nm && mv[i] < b; ++i) {
+            w += mp[i] * vw[b - mv[i]];
+            l += mp[i] * vl[b - mv[i]];
+        }
+        yw[b] = w;
+        yl[b] = l + fin[b];
+    }
+}
+
+// True when every zone row b <= zb of the piece is its moves m < b (to b - m,
+// with the moves' own probabilities) in increasing order, then at most one
+// finishing entry, whose probability goes to fin[b] (0 when there is none).
+bool zone_as_moves(const DistanceModel& B, int zb, std::vector<double>& fin) {
+    fin.assign(static_cast<std::size_t>(zb) + 8, 0.0);
+    for (int b = 1; b <= zb; ++b) {
+        int e = B.zone_row[b];
+        const int end = B.zone_row[b + 1];
+        for (std::size_t i = 0; i < B.moves.size() && B.moves[i] < b; ++i, ++e)
+            if (e >= end || B.zone_to[e] != b - B.moves[i] || B.zone_p[e] != B.move_p[i]) return false;
+        if (e < end && B.zone_to[e] == 0) fin[b] = B.zone_p[e++];
+        if (e != end) return false;
+    }
+    return true;
+}
+
+// Buffers kept between calls on one thread (a hunt runs hundreds of pairs on
+// each): fresh pages cost more than the rows written on them. Buffers past
+// 32 MiB are let go after the call.
+struct Workspace {
+    std::vector<double> gw, gl, vbuf, hw, xw, xl, xbuf, yw, yl, fin;
+};
+Workspace& workspace() {
+    static thread_local Workspace w;
+    return w;
+}
+void let_go_if_large(std::vector<double>& v) {
+    if (v.capacity() * sizeof(double) > (std::size_t{32} << 20)) std::vector<double>().swap(v);
+}
+
 // One cell's closed-form self-loop: V = (X + sa Y) / (la + sa lb), with
 // 1 - sa sb written as la + sa lb (no cancellation for heavy options), then
 // G = sb V + Y. A cell where both stay for sure is a shared stuck state (0).
@@ -218,16 +282,26 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
     const std::size_t stride = static_cast<std::size_t>(L) + 1;
     // G(a', b): the value once the first piece has moved to a' and before the
     // second moves; rows kept in a ring of max-move + 1.
-    std::vector<double> gw(static_cast<std::size_t>(ring) * stride, 0), gl(gw.size(), 0);
-    // V rows: one for a row done alone, four for a block of rows.
-    std::vector<double> vbuf(8 * stride, 0), hw(stride, 0), xw(stride), xl(stride);
-    double* vw = vbuf.data();
-    double* vl = vbuf.data() + stride;
+    Workspace& ws = workspace();
+    std::vector<double>& gw = ws.gw;
+    std::vector<double>& gl = ws.gl;
+    gw.assign(static_cast<std::size_t>(ring) * stride, 0);
+    gl.assign(gw.size(), 0);
+    // V rows: one for a row done alone, four for a block of rows; each with 8
+    // zeros before distance 0 (zone_moves reads that far).
+    const std::size_t vstride = stride + 8;
+    std::vector<double>&hw = ws.hw, &xw = ws.xw, &xl = ws.xl, &vbuf = ws.vbuf;
+    vbuf.assign(8 * vstride, 0);
+    hw.assign(stride, 0);
+    xw.assign(stride, 0);
+    xl.assign(stride, 0);
+    double* vw = vbuf.data() + 8;
+    double* vl = vw + vstride;
     double* bw[4];
     double* bl[4];
     for (int r = 0; r < 4; ++r) {
-        bw[r] = vbuf.data() + (2 * r) * stride;
-        bl[r] = vbuf.data() + (2 * r + 1) * stride;
+        bw[r] = vw + (2 * r) * vstride;
+        bl[r] = vw + (2 * r + 1) * vstride;
     }
     for (int b = 1; b <= L; ++b) hw[b] = a_first ? 1.0 : B.no_finish[b];
     const int zb = std::min(L, B.zone);
@@ -241,7 +315,19 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
     const int za = strip ? strip->za : 0, zs = strip ? strip->zb : 0;
     // Columns 1..top and rows 1..last: all of them without a strip.
     const int top = strip ? std::min(L, strip->width) : L, last = strip ? std::min(L, strip->last_row) : L;
-    std::vector<double> xbuf(strip ? 8 * stride : 0);
+    std::vector<double>& xbuf = ws.xbuf;
+    xbuf.assign(strip ? 8 * stride : 0, 0.0);
+    // The second piece's zone rows as its moves (vectorised on finished rows),
+    // unless the cell-by-cell loop is asked for.
+    const bool zone_vec = vectorised && zone_as_moves(B, zb, ws.fin);
+    std::vector<double>&yw_row = ws.yw, &yl_row = ws.yl;
+    yw_row.assign(stride + 8, 0.0);
+    yl_row.assign(stride + 8, 0.0);
+    // Y on the second piece's zone cells of a finished V row.
+    auto zone_y = [&](const double* v_w, const double* v_l, int hi) {
+        zone_moves(v_w, v_l, yw_row.data(), yl_row.data(), B.moves.data(), B.move_p.data(), nb, ws.fin.data(), 1,
+                   hi + 1);
+    };
     if (strip) {
         if (za != A.zone || zs != B.zone || A.p_zero != 0.0 || B.p_zero != 0.0 || na == 0 || nb == 0)
             throw InternalError("diagonal_rows: a strip needs both zones and no move of 0");
@@ -260,11 +346,19 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
     auto finish_row = [&](int a, const double* v_w, const double* v_l) {
         double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
         double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
-        for (int b = 1; b <= zb; ++b) {
-            double yw, yl;
-            zone_terms(B, b, v_w, v_l, yw, yl);
-            rw[b] = B.stay[b] * v_w[b] + yw;
-            rl[b] = B.stay[b] * v_l[b] + yl;
+        if (zone_vec) {
+            zone_y(v_w, v_l, zb);
+            for (int b = 1; b <= zb; ++b) {
+                rw[b] = B.stay[b] * v_w[b] + yw_row[b];
+                rl[b] = B.stay[b] * v_l[b] + yl_row[b];
+            }
+        } else {
+            for (int b = 1; b <= zb; ++b) {
+                double yw, yl;
+                zone_terms(B, b, v_w, v_l, yw, yl);
+                rw[b] = B.stay[b] * v_w[b] + yw;
+                rl[b] = B.stay[b] * v_l[b] + yl;
+            }
         }
         shifted_rows(v_w, v_l, rw, rl, B.moves.data(), B.move_p.data(), nb, B.stay.data(), zb + 1, top + 1);
         dw[a] = v_w[a];
@@ -301,10 +395,24 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
         const double sa = A.stay[a], la = A.leave[a];
         double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
         double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
-        for (int b = 1; b <= zr; ++b) {
-            double yw, yl;
-            zone_terms(B, b, vw, vl, yw, yl);
-            solve_cell(x_w[b], x_l[b], yw, yl, sa, la, B.leave[b], B.stay[b], vw[b], vl[b], rw[b], rl[b]);
+        if (zone_vec && sa == 0.0 && la > 0) {
+            // No self-loop for the first piece: V = (X + 0 Y) / (la + 0 lb) = X / la
+            // on every cell at once, then Y from the finished cells (solve_cell's bits).
+            for (int b = 1; b <= zr; ++b) {
+                vw[b] = x_w[b] / la;
+                vl[b] = x_l[b] / la;
+            }
+            zone_y(vw, vl, zr);
+            for (int b = 1; b <= zr; ++b) {
+                rw[b] = B.stay[b] * vw[b] + yw_row[b];
+                rl[b] = B.stay[b] * vl[b] + yl_row[b];
+            }
+        } else {
+            for (int b = 1; b <= zr; ++b) {
+                double yw, yl;
+                zone_terms(B, b, vw, vl, yw, yl);
+                solve_cell(x_w[b], x_l[b], yw, yl, sa, la, B.leave[b], B.stay[b], vw[b], vl[b], rw[b], rl[b]);
+            }
         }
         // phi: what the programme computes at a free cell, V = (X + 0 Y) / (la + 0 lb) = X / la.
         if (a <= 2 * za) {
@@ -437,6 +545,8 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
         ++counts.scalar_rows;
         ++a;
     }
+    for (auto* v : {&ws.gw, &ws.gl, &ws.vbuf, &ws.hw, &ws.xw, &ws.xl, &ws.xbuf, &ws.yw, &ws.yl, &ws.fin})
+        let_go_if_large(*v);
     return counts;
 }
 
