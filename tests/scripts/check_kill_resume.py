@@ -26,7 +26,7 @@ import tempfile
 import time
 
 BINARY = sys.argv[1]
-HUNT = ["hunt", "dice(count=1..4, sides=4,6,8,10)", "--lengths", "10..2400", "--threads", "1", "--json"]
+HUNT = ["hunt", "dice(count=1..5, sides=4,6,8,10,12)", "--lengths", "10..3000", "--threads", "1", "--json"]
 
 
 def fail(msg):
