@@ -148,7 +148,8 @@ TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks",
                 for (std::size_t k = sh.first; k < sh.first + sh.count; ++k)
                     covered[store.slot(sh.variant, p.a, p.b) * store.length_count + k]++;
             if (sh.variant == 0)
-                REQUIRE((sh.method == LengthMethod::series || sh.method == LengthMethod::pairs));
+                REQUIRE((sh.method == LengthMethod::series || sh.method == LengthMethod::pairs ||
+                         sh.method == LengthMethod::closure));
             else
                 REQUIRE(sh.method == LengthMethod::board);
         }
@@ -170,6 +171,28 @@ TEST_CASE("a hunt plan covers every unknown cell once, for any number of ranks",
             REQUIRE(by_rank[r] <= total / ranks + largest + 1e-9 * total);
         }
     }
+}
+
+TEST_CASE("a hunt plan names the method the engine uses for each pair", "[hunt]") {
+    // Light and heavy dice: programme pairs the whole programme does, and those
+    // the end-zone closure takes (labelled closure, costed by its own estimate).
+    const HuntSpec spec = hunt_spec("dice(count=1..6, sides=6,20)", "7..600", {{Overshoot::stay, Order::simultaneous}}, 2);
+    HuntStore store(spec.options.size(), spec.variants.size(), spec.grid.lengths().size());
+    const HuntPlan plan = plan_hunt(spec, store, 1, 2);
+    std::vector<PairRequest> all;
+    std::set<LengthMethod> seen;
+    for (const auto& sh : plan.shards) {
+        seen.insert(sh.method);
+        for (const auto& p : sh.pairs) all.push_back(p);
+    }
+    REQUIRE(seen == std::set<LengthMethod>{LengthMethod::pairs, LengthMethod::closure});
+    const auto res = all_lengths(spec.options, Overshoot::stay, Order::simultaneous, spec.grid.hi, all, spec.engine);
+    std::size_t k = 0;
+    for (const auto& sh : plan.shards)
+        for (std::size_t q = 0; q < sh.pairs.size(); ++q, ++k) {
+            INFO(spec.options[sh.pairs[q].a].name << " vs " << spec.options[sh.pairs[q].b].name);
+            REQUIRE(res[k].method == sh.method);
+        }
 }
 
 TEST_CASE("shards computed apart and merged give the bytes of one run", "[hunt]") {

@@ -107,7 +107,7 @@ HuntPlan plan_hunt(const HuntSpec& spec, const HuntStore& store, int ranks, int 
                     }
                     HuntShard sh;
                     sh.variant = v;
-                    sh.method = LengthMethod::pairs;
+                    sh.method = c.closure ? LengthMethod::closure : LengthMethod::pairs;
                     sh.pairs = {{i, j}};
                     sh.first = 0;
                     sh.count = nl;

@@ -18,7 +18,7 @@ namespace overshoot {
 struct HuntShard {
     std::size_t id = 0;
     std::size_t variant = 0;
-    LengthMethod method = LengthMethod::series;  // series, pairs or board
+    LengthMethod method = LengthMethod::series;  // series, pairs, closure or board
     std::vector<PairRequest> pairs;
     std::size_t first = 0, count = 0;  // swept lengths first .. first+count-1
     double cost = 0;                   // estimated multiply-adds

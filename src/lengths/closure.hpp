@@ -27,6 +27,11 @@ bool closure_applies(const DistanceModel& A, const DistanceModel& B);
 // Its multiply-adds, estimated, for choosing it (method.cpp).
 double closure_work(const DistanceModel& A, const DistanceModel& B, int L);
 
+// Its cost for planning a hunt, per ordered race, in the unit of the plan's
+// other estimates (the series' multiply-adds): each part of closure_work
+// weighted by the time it was measured to take (closure.cpp).
+double closure_cost(const DistanceModel& A, const DistanceModel& B, int L);
+
 struct ClosureCounts {
     std::uint64_t multiply_adds = 0;
     int rounds = 0;  // convolution powers used

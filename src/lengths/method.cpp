@@ -96,6 +96,9 @@ PairCost estimate_pair_cost(const Option& a, const Option& b, Overshoot rule, Or
         // step_two steps two vectors per option; each race adds three terms per start.
         c.step_work = c.turns * L * 2 * (ka + kb);
         c.work = c.step_work + c.turns * L * 3 * races;
+    } else if (lengths_engine::closure_chosen(s.method, da, db, max_length)) {
+        c.closure = true;
+        c.work = lengths_engine::closure_cost(da, db, max_length) * races;
     } else {
         c.work = 1.3 * L * L * (ka + kb) * races;
     }

@@ -42,6 +42,7 @@ double series_turns_estimate(const Option& a, const Option& b, Overshoot rule, i
 // multiply-adds, with the series' option stepping counted for this pair alone.
 struct PairCost {
     bool series = false;
+    bool closure = false;    // a programme pair done by the end-zone closure
     double turns = 0;        // estimated turns of the series
     double work = 0;         // whole pair
     double step_work = 0;    // of that, stepping the two options (shared between pairs of a group)
