@@ -308,8 +308,8 @@ const Registration reg(70, [](CLI::App& app) {
     cmd->add_flag("--resume", args->resume, "continue from --checkpoint without redoing finished pairs")->needs(checkpoint);
     cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)")->check(whole_in(0, 4096));
     add_output_flags(*cmd, args->out, {"text", "json", "md", "latex"});
-    cmd->add_option("--method", args->method, "all-lengths method: auto, series, pairs, pairs-scalar or closure")
-        ->check(one_of({"auto", "series", "pairs", "pairs-scalar", "closure"}));
+    cmd->add_option("--method", args->method, "all-lengths method: auto, series, pairs, pairs-scalar, closure or zone-tail")
+        ->check(one_of({"auto", "series", "pairs", "pairs-scalar", "closure", "zone-tail"}));
     cmd->add_option("--stop-after-pairs", args->stop_after,
                     "stop as if interrupted after this many new pairs (for batches and tests)")
         ->check(whole_in(0, 1'000'000'000'000));

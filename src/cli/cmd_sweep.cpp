@@ -131,8 +131,8 @@ const Registration reg(60, [](CLI::App& app) {
                                        "a jump FROM:TO on the longest board; repeat the flag or give FROM:TO,FROM:TO");
     cmd->add_option("--scenario", args->scenario, "a TOML scenario file (flags override it)");
     add_output_flags(*cmd, args->out, {"text", "json", "csv", "md", "latex"});
-    cmd->add_option("--method", args->method, "all-lengths method: auto, series, pairs, pairs-scalar or closure (docs/sweep.md)")
-        ->check(one_of({"auto", "series", "pairs", "pairs-scalar", "closure"}));
+    cmd->add_option("--method", args->method, "all-lengths method: auto, series, pairs, pairs-scalar, closure or zone-tail (docs/sweep.md)")
+        ->check(one_of({"auto", "series", "pairs", "pairs-scalar", "closure", "zone-tail"}));
     cmd->add_option("--threads", args->threads, "threads (0: all cores; same output for any count)")->check(whole_in(0, 4096));
     cmd->add_option("--max-cycle-length", args->max_cycle_length, "longest cycle listed per length (default 6)")
         ->check(whole_in(3, 1000));

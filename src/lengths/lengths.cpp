@@ -15,11 +15,18 @@
 #include "lengths/distance.hpp"
 #include "lengths/series.hpp"
 #include "lengths/tallies.hpp"
+#include "lengths/zone_tail.hpp"
 #include "race/duel.hpp"
 
 namespace overshoot {
 
 using lengths_engine::DistanceModel;
+
+namespace {
+// The zone tail covers a length when its proven truncation bound is at most
+// this (the rest of a probability's bound is rounding, about 1e-14).
+constexpr double tail_target = 1e-13;
+}  // namespace
 
 JumpAnchor parse_anchor(std::string_view t) {
     if (t == "start") return JumpAnchor::start;
@@ -71,10 +78,11 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         to_series[k] = lengths_engine::series_chosen(s.method, est, L) ? 1 : 0;
     }
     std::mutex done_mutex;
-    auto finish = [&](std::size_t k, std::vector<LengthOutcome> v, LengthMethod method) {
+    auto finish = [&](std::size_t k, std::vector<LengthOutcome> v, LengthMethod method, int tail_from = 0) {
         std::lock_guard<std::mutex> lock(done_mutex);
         out[k].by_length = std::move(v);
         out[k].method = method;
+        out[k].tail_from = tail_from;
         out[k].done = true;
         if (on_done) on_done(out[k]);
     };
@@ -84,30 +92,88 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
     for (std::size_t k = 0; k < requests.size(); ++k) (to_series[k] ? series_list : pp_jobs).push_back(k);
     std::vector<std::size_t> fallback;  // series pairs that hit their cap
     std::mutex fallback_mutex;
-    auto series_job = [&] {
-        std::vector<lengths_engine::SeriesOption> opts(options.size());
-        for (std::size_t i = 0; i < options.size(); ++i) opts[i].o = &dist[i];
-        std::vector<lengths_engine::SeriesPair> sp(series_list.size());
-        for (std::size_t q = 0; q < series_list.size(); ++q) {
-            const std::size_t k = series_list[q];
-            sp[q].index = k;
-            sp[q].A = &opts[requests[k].a];
-            sp[q].B = &opts[requests[k].b];
-            sp[q].A->used = sp[q].B->used = true;
-            sp[q].races = needed_races(order);
-            const double est = lengths_engine::turns_estimate(dist[requests[k].a], dist[requests[k].b], s.close_target);
-            sp[q].cap = 3 * est + 2000;
+    // Series pairs on long lengths: the zone tail from the length where its
+    // bound meets the target, the series below it (a pair's numbers depend on
+    // the pair and L alone: the series of each cut length runs on its own).
+    std::vector<lengths_engine::ZoneTail> tails(requests.size());
+    const bool try_tail = s.method == LengthMethod::automatic || s.method == LengthMethod::zone_tail;
+    if (try_tail)
+        parallel_for(
+            series_list.size(), s.threads,
+            [&](std::size_t q) {
+                const std::size_t k = series_list[q];
+                const std::size_t a = requests[k].a, b = requests[k].b;
+                tails[k] = lengths_engine::zone_tail(options[a], options[b], dist[a], dist[b], rule, needed_races(order), L,
+                                                     tail_target);
+            },
+            s.cancel);
+    auto series_top = [&](std::size_t k) { return try_tail && tails[k].first <= L ? tails[k].first - 1 : L; };
+    std::vector<std::vector<std::size_t>> series_groups;  // one per cut length, in order of first appearance
+    {
+        std::vector<int> tops;
+        for (std::size_t k : series_list) {
+            const int top = series_top(k);
+            const auto it = std::find(tops.begin(), tops.end(), top);
+            if (it == tops.end()) {
+                tops.push_back(top);
+                series_groups.push_back({k});
+            } else {
+                series_groups[it - tops.begin()].push_back(k);
+            }
         }
-        lengths_engine::run_series(opts, sp, L, s.close_target, s.cancel);
-        for (auto& p : sp) {
+    }
+    auto series_job = [&](const std::vector<std::size_t>& group) {
+        const int top = series_top(group.front());
+        std::vector<lengths_engine::SeriesPair> sp(group.size());
+        std::vector<lengths_engine::SeriesOption> opts(options.size());
+        if (top >= 1) {
+            for (std::size_t i = 0; i < options.size(); ++i) opts[i].o = &dist[i];
+            for (std::size_t q = 0; q < group.size(); ++q) {
+                const std::size_t k = group[q];
+                sp[q].index = k;
+                sp[q].A = &opts[requests[k].a];
+                sp[q].B = &opts[requests[k].b];
+                sp[q].A->used = sp[q].B->used = true;
+                sp[q].races = needed_races(order);
+                const double est = lengths_engine::turns_estimate(dist[requests[k].a], dist[requests[k].b], s.close_target);
+                sp[q].cap = 3 * est + 2000;
+            }
+            lengths_engine::run_series(opts, sp, top, s.close_target, s.cancel);
+        }
+        for (std::size_t q = 0; q < group.size(); ++q) {
+            const std::size_t k = group[q];
+            auto& p = sp[q];
             if (p.failed) {
                 std::lock_guard<std::mutex> lock(fallback_mutex);
-                fallback.push_back(p.index);
+                fallback.push_back(k);
                 continue;
             }
+            const DistanceModel& A = dist[requests[k].a];
+            const DistanceModel& B = dist[requests[k].b];
             std::vector<double> neither(L + 1, 0);
-            for (int d = 1; d <= L; ++d) neither[d] = p.A->o->p_never[d] * p.B->o->p_never[d];
-            finish(p.index, lengths_engine::combine(order, L, p.sim, p.af, p.bf, neither, p.close_bound), LengthMethod::series);
+            for (int d = 1; d <= L; ++d) neither[d] = A.p_never[d] * B.p_never[d];
+            if (top == L) {
+                finish(k, lengths_engine::combine(order, L, p.sim, p.af, p.bf, neither, p.close_bound), LengthMethod::series);
+                continue;
+            }
+            // Lengths 1..top from the series, the rest from the zone tail.
+            lengths_engine::ZoneTail& zt = tails[k];
+            auto join = [&](lengths_engine::Tallies& into, const lengths_engine::Tallies& low) {
+                if (into.win.empty()) return;
+                for (int d = 1; d <= top; ++d) {
+                    into.win[d] = low.win[d];
+                    into.loss[d] = low.loss[d];
+                    if (!low.tie.empty()) into.tie[d] = low.tie[d];
+                }
+            };
+            if (top >= 1) {
+                join(zt.sim, p.sim);
+                join(zt.af, p.af);
+                join(zt.bf, p.bf);
+                for (int d = 1; d <= top; ++d) zt.bound[d] = p.close_bound[d];
+            }
+            finish(k, lengths_engine::combine(order, L, zt.sim, zt.af, zt.bf, neither, zt.bound), LengthMethod::zone_tail,
+                   zt.first);
         }
     };
     // A programme pair: the end-zone closure where it is chosen, else the whole programme.
@@ -124,16 +190,16 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         finish(k, lengths_engine::diagonal_duels(A, B, order, L, s.cancel, kind, inner_threads),
                closure ? LengthMethod::closure : LengthMethod::pairs);
     };
-    // Job 0 is the series group when there is one (handed out first), then one
+    // The series groups come first (handed out first), then one
     // job per programme pair. A cancelled job ends quietly; the flag stops the rest.
-    const std::size_t first_pp = series_list.empty() ? 0 : 1;
+    const std::size_t first_pp = series_groups.size();
     if (first_pp + pp_jobs.size() == 1) inner_threads = all_threads;
     parallel_for(
         first_pp + pp_jobs.size(), s.threads,
         [&](std::size_t j) {
             try {
                 if (j < first_pp) {
-                    series_job();
+                    series_job(series_groups[j]);
                     return;
                 }
                 const std::size_t k = pp_jobs[j - first_pp];

@@ -41,7 +41,8 @@ struct PairRequest {
 
 struct PairLengths {
     std::size_t a = 0, b = 0;
-    LengthMethod method = LengthMethod::series;  // series, pairs or board
+    LengthMethod method = LengthMethod::series;  // series, pairs, closure, zone_tail or board
+    int tail_from = 0;  // zone_tail: the first length the zone tail gives (the series gives those below)
     bool done = false;                 // false when cancelled before it finished
     std::vector<LengthOutcome> by_length;  // index: length (0 unused), up to max_length
 };

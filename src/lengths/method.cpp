@@ -19,15 +19,16 @@ std::string_view to_string(LengthMethod m) {
         case LengthMethod::board: return "board";
         case LengthMethod::pairs_scalar: return "pairs-scalar";
         case LengthMethod::closure: return "closure";
+        case LengthMethod::zone_tail: return "zone-tail";
     }
     return "?";
 }
 
 LengthMethod parse_length_method(std::string_view t) {
     for (auto m : {LengthMethod::automatic, LengthMethod::series, LengthMethod::pairs, LengthMethod::pairs_scalar,
-                   LengthMethod::closure})
+                   LengthMethod::closure, LengthMethod::zone_tail})
         if (t == to_string(m)) return m;
-    throw InputError(fmt::format("method '{}': expected auto, series, pairs, pairs-scalar or closure", t));
+    throw InputError(fmt::format("method '{}': expected auto, series, pairs, pairs-scalar, closure or zone-tail", t));
 }
 
 namespace lengths_engine {
@@ -49,7 +50,8 @@ double turns_estimate(const DistanceModel& a, const DistanceModel& b, double tar
 
 bool series_chosen(LengthMethod method, double turns, int max_length) {
     switch (method) {
-        case LengthMethod::series: return true;
+        case LengthMethod::series:
+        case LengthMethod::zone_tail: return true;
         case LengthMethod::pairs:
         case LengthMethod::pairs_scalar:
         case LengthMethod::closure: return false;

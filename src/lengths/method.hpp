@@ -15,13 +15,17 @@ namespace overshoot {
 // How the duels of a pair over lengths are computed. `board` (one length at a
 // time through duel(), for jumps and the rule bounce) is what a result says,
 // never a setting: parse_length_method accepts auto, series, pairs and
-// pairs-scalar, closure. pairs: the diagonal programme in row form (vectorised);
+// pairs-scalar, closure, zone-tail. pairs: the diagonal programme in row form (vectorised);
 // pairs_scalar: the same programme cell by cell, the same bits, kept to be
 // timed side by side (its results say pairs).
 // closure: the programme on the end zones only, closed by the free walk
 // (docs/sweep.md, "End-zone closure"); auto takes it where it is estimated
 // cheaper than the whole programme.
-enum class LengthMethod { automatic, series, pairs, pairs_scalar, board, closure };
+// zone_tail: the series on the short lengths and, from the length where its
+// proven bound meets the target, the zone-tail sums (zone_tail.hpp); auto
+// takes it for every series pair where it covers some length, `series`
+// keeps the series alone.
+enum class LengthMethod { automatic, series, pairs, pairs_scalar, board, closure, zone_tail };
 
 std::string_view to_string(LengthMethod m);
 LengthMethod parse_length_method(std::string_view text);

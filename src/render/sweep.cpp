@@ -85,6 +85,21 @@ std::string stretches_text(const SweepResult& r, const PairSweep& p, const std::
 
 }  // namespace
 
+namespace {
+
+// The method that gave one length: a zone-tail pair takes the series below its first length.
+LengthMethod length_method(const PairSweep& p, int length) {
+    return p.method == LengthMethod::zone_tail && length < p.tail_from ? LengthMethod::series : p.method;
+}
+
+std::string method_text(const PairSweep& p) {
+    if (p.method != LengthMethod::zone_tail) return std::string(to_string(p.method));
+    return p.tail_from > 1 ? fmt::format("series to {}, zone tail from {}", p.tail_from - 1, p.tail_from)
+                           : std::string("zone tail");
+}
+
+}  // namespace
+
 std::string sweep_text(const SweepResult& r) {
     std::string out = fmt::format("sweep of {} options over {}, {}\n", r.options.size(), grid_text(r.grid), jumps_text(r.jumps, r.anchor, r.grid));
     for (const auto& vs : r.variants) {
@@ -92,7 +107,7 @@ std::string sweep_text(const SweepResult& r) {
         std::string methods;
         for (const auto& p : vs.pairs)
             methods += fmt::format("{}{} vs {}: {}", methods.empty() ? "" : "; ", r.options[p.a].name,
-                                   r.options[p.b].name, to_string(p.method));
+                                   r.options[p.b].name, method_text(p));
         out += fmt::format("  method: {}\n", methods);
         out += "  preferred, by margin (smallest to largest):\n";
         for (const auto& p : vs.pairs)
@@ -175,8 +190,11 @@ json sweep_json(const SweepResult& r) {
     for (const auto& vs : r.variants) {
         const std::string rule(to_string(vs.variant.rule)), order(to_string(vs.variant.order));
         json methods = json::array();
-        for (const auto& p : vs.pairs)
-            methods.push_back({{"a", r.options[p.a].name}, {"b", r.options[p.b].name}, {"method", std::string(to_string(p.method))}});
+        for (const auto& p : vs.pairs) {
+            json m = {{"a", r.options[p.a].name}, {"b", r.options[p.b].name}, {"method", std::string(to_string(p.method))}};
+            if (p.method == LengthMethod::zone_tail) m["zone_tail_from"] = p.tail_from;
+            methods.push_back(std::move(m));
+        }
         variants.push_back({{"overshoot", rule}, {"order", order}, {"methods", methods},
                             {"no_condorcet_winner", runs_json(vs.no_dominant)},
                             {"cycle_cap_hit", vs.cycles_cap_hit}});
@@ -249,7 +267,8 @@ std::string sweep_csv(const SweepResult& r) {
                 out += fmt::format("{},{},{},{},{},{},{},{},{},{},{},{},{}\n", to_string(vs.variant.rule),
                                    to_string(vs.variant.order), vs.lengths[k], csv_cell(r.options[p.a].name),
                                    csv_cell(r.options[p.b].name), number(o.p_a_wins), number(o.p_b_wins), number(o.p_tie),
-                                   number(o.p_neither), number(o.margin()), number(bound), csv_cell(pref), to_string(p.method));
+                                   number(o.p_neither), number(o.margin()), number(bound), csv_cell(pref),
+                                   to_string(length_method(p, vs.lengths[k])));
             }
     return out;
 }

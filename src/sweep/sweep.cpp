@@ -208,6 +208,7 @@ SweepResult run_sweep(const SweepSpec& spec) {
             p.a = r.a;
             p.b = r.b;
             p.method = r.method;
+            p.tail_from = r.tail_from;
             for (int l : lengths) p.at.push_back(r.by_length[l]);
             pairs.push_back(std::move(p));
         }

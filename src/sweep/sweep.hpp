@@ -52,6 +52,7 @@ struct LengthSummary {
 struct PairSweep {
     std::size_t a = 0, b = 0;
     LengthMethod method = LengthMethod::series;
+    int tail_from = 0;              // zone_tail: the first length it gives, the series below
     std::vector<LengthOutcome> at;  // one per swept length, in grid order
 };
 

@@ -1,0 +1,369 @@
+#include "lengths/zone_tail.hpp"
+
+#include <gmpxx.h>
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+#include "chain/series.hpp"
+
+namespace overshoot::lengths_engine {
+
+namespace {
+
+using ld = long double;
+
+// Scaled values outside this range would lose the relative accuracy the
+// bound assumes (overflow, or gradual underflow): such a length and every
+// longer one is left to the series.
+constexpr ld huge_value = 1e4700L;
+constexpr ld tiny_value = 1e-4700L;
+constexpr int max_zone = 40;
+constexpr double smallest_cut = 0.01;  // stay probabilities below this are always bounded, never kept
+
+// One piece's end zone from its integer weights (distances 1..z, z its
+// largest move): the weight of staying and of finishing at each distance;
+// a move m < e goes to e - m with weight w[m].
+struct ExactZone {
+    int z = 0;
+    std::uint64_t den = 1;
+    std::vector<std::uint64_t> w, stay, fin;  // w by move, stay and fin by distance
+};
+
+ExactZone exact_zone(const Option& o, Overshoot rule) {
+    ExactZone x;
+    x.z = o.max_move();
+    x.den = o.denominator;
+    x.w = o.weight;
+    x.stay.assign(x.z + 1, 0);
+    x.fin.assign(x.z + 1, 0);
+    for (int e = 1; e <= x.z; ++e)
+        for (int m = 1; m <= x.z; ++m) {
+            if (x.w[m] == 0 || m < e) continue;
+            if (m == e || rule == Overshoot::pass)
+                x.fin[e] += x.w[m];
+            else
+                x.stay[e] += x.w[m];
+        }
+    return x;
+}
+
+ld to_ld(const mpq_class& q) {
+    // Two doubles carry about 106 bits: the long double is q rounded (relative u_ld + 2^-104).
+    mpf_class f(q, 256);
+    const double hi = f.get_d();
+    mpf_class rest = f - hi;
+    return static_cast<ld>(hi) + static_cast<ld>(rest.get_d());
+}
+
+// The fast piece's zone survival as geometric terms:
+// P(n < N < inf | e) = sum_j c[e][j] s_j^n (n >= 0) and
+// P(N = n | e) = sum_j c'[e][j] s_j^(n-1) (n >= 1), over the distances j of
+// the zone that can still finish (s_j their stay probability, all distinct).
+struct Modes {
+    std::vector<int> states;             // distances that can finish, ascending
+    std::vector<std::vector<ld>> c, cp;  // [state index][mode index]
+    std::vector<ld> lambda, inv_lambda, one_minus;  // per mode
+    std::vector<std::uint64_t> stay_w;
+    ld c_max = 0, cp_max = 0;            // largest row sums of |c| and |c'|
+    bool ok = false;
+    bool nilpotent = false;              // no square can be stayed on: no terms, the zone time is at most z
+};
+
+Modes zone_modes(const ExactZone& x) {
+    Modes m;
+    const int z = x.z;
+    std::vector<mpq_class> h(z + 1, 0);
+    for (int e = 1; e <= z; ++e) {
+        if (x.stay[e] == x.den) continue;
+        mpq_class s = mpq_class(mpz_class(std::to_string(x.fin[e])));
+        for (int mv = 1; mv < e; ++mv)
+            if (x.w[mv]) s += mpq_class(mpz_class(std::to_string(x.w[mv]))) * h[e - mv];
+        h[e] = s / mpq_class(mpz_class(std::to_string(x.den - x.stay[e])));
+        h[e].canonicalize();
+    }
+    std::vector<int> index(z + 1, -1);
+    for (int e = 1; e <= z; ++e)
+        if (h[e] > 0) {
+            index[e] = static_cast<int>(m.states.size());
+            m.states.push_back(e);
+        }
+    const std::size_t n = m.states.size();
+    if (std::all_of(m.states.begin(), m.states.end(), [&](int e) { return x.stay[e] == 0; })) {
+        m.nilpotent = m.ok = true;
+        return m;
+    }
+    for (std::size_t i = 0; i < n; ++i)
+        for (std::size_t j = 0; j < i; ++j)
+            if (x.stay[m.states[i]] == x.stay[m.states[j]]) return m;  // equal stays: not diagonal in this form
+    std::vector<std::vector<mpq_class>> c(n, std::vector<mpq_class>(n, 0)), cp = c;
+    const mpq_class den(mpz_class(std::to_string(x.den)));
+    for (std::size_t i = 0; i < n; ++i) {
+        const int e = m.states[i];
+        mpq_class sum_c = 0, sum_cp = 0;
+        for (std::size_t j = 0; j < i; ++j) {
+            mpq_class a = 0, b = 0;
+            for (int mv = 1; mv < e; ++mv) {
+                const int k = index[e - mv];
+                if (!x.w[mv] || k < static_cast<int>(j)) continue;
+                const mpq_class wm(mpz_class(std::to_string(x.w[mv])));
+                a += wm * c[k][j];
+                b += wm * cp[k][j];
+            }
+            const mpq_class gap = mpq_class(mpz_class(std::to_string(x.stay[m.states[j]]))) -
+                                  mpq_class(mpz_class(std::to_string(x.stay[e])));
+            c[i][j] = a / gap;
+            cp[i][j] = b / gap;
+            sum_c += c[i][j];
+            sum_cp += cp[i][j];
+        }
+        c[i][i] = h[e] - sum_c;
+        cp[i][i] = mpq_class(mpz_class(std::to_string(x.fin[e]))) / den - sum_cp;
+    }
+    m.c.assign(n, std::vector<ld>(n, 0));
+    m.cp = m.c;
+    for (std::size_t i = 0; i < n; ++i) {
+        ld rc = 0, rcp = 0;
+        for (std::size_t j = 0; j <= i; ++j) {
+            m.c[i][j] = to_ld(c[i][j]);
+            m.cp[i][j] = to_ld(cp[i][j]);
+            rc += std::fabs(m.c[i][j]);
+            rcp += std::fabs(m.cp[i][j]);
+        }
+        m.c_max = std::max(m.c_max, rc);
+        m.cp_max = std::max(m.cp_max, rcp);
+    }
+    for (std::size_t j = 0; j < n; ++j) {
+        const std::uint64_t s = x.stay[m.states[j]];
+        m.stay_w.push_back(s);
+        m.lambda.push_back(static_cast<ld>(s) / static_cast<ld>(x.den));
+        m.inv_lambda.push_back(s ? static_cast<ld>(x.den) / static_cast<ld>(s) : 0);
+        m.one_minus.push_back(static_cast<ld>(x.den - s) / static_cast<ld>(x.den));
+    }
+    m.ok = true;
+    return m;
+}
+
+// 2^(r d) E[lambda^T; T < inf | d] for d = 0..L: the slow piece's finishing
+// time at lambda, its self-loops in closed form ((1 - lambda) + lambda leave,
+// no cancellation), scaled by a power of two so it stays in range.
+std::vector<ld> finish_gf(const ExactZone& x, ld lambda, ld one_minus, int r, int L) {
+    std::vector<ld> v(L + 1, 0);
+    v[0] = 1;
+    const ld den = static_cast<ld>(x.den);
+    std::vector<ld> a;
+    std::vector<int> moves;
+    for (int m = 1; m <= x.z; ++m)
+        if (x.w[m]) {
+            moves.push_back(m);
+            a.push_back(lambda * std::ldexp(static_cast<ld>(x.w[m]) / den, r * m));
+        }
+    const int zt = std::min(L, x.z);
+    for (int d = 1; d <= zt; ++d) {
+        ld num = std::ldexp(static_cast<ld>(x.fin[d]) / den, r * d);
+        for (std::size_t i = 0; i < moves.size() && moves[i] < d; ++i)
+            num += std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, r * moves[i]) * v[d - moves[i]];
+        const ld leave = static_cast<ld>(x.den - x.stay[d]) / den;
+        v[d] = lambda * num / (one_minus + lambda * leave);
+    }
+    const std::size_t k = moves.size();
+    for (int d = zt + 1; d <= L; ++d) {
+        ld s = 0;
+        for (std::size_t i = 0; i < k; ++i) s += a[i] * v[d - moves[i]];
+        v[d] = s;
+    }
+    return v;
+}
+
+// 2^(-r d) sum_e b_q(e) E[w^tau; enters the zone at e | d] for d = 0..L and
+// each boundary vector b_q (given on distances 1..z): the fast piece's
+// zone-entry time tau at w, several boundaries in one pass.
+std::vector<std::vector<ld>> entry_gf(const ExactZone& x, ld w, int r, int L,
+                                      const std::vector<std::vector<ld>>& boundary) {
+    const std::size_t nb = boundary.size();
+    std::vector<std::vector<ld>> v(nb, std::vector<ld>(L + 1, 0));
+    const ld den = static_cast<ld>(x.den);
+    std::vector<ld> a;
+    std::vector<int> moves;
+    for (int m = 1; m <= x.z; ++m)
+        if (x.w[m]) {
+            moves.push_back(m);
+            a.push_back(w * std::ldexp(static_cast<ld>(x.w[m]) / den, -r * m));
+        }
+    for (int d = 1; d <= std::min(L, x.z); ++d)
+        for (std::size_t q = 0; q < nb; ++q) v[q][d] = std::ldexp(boundary[q][d], -r * d);
+    const std::size_t k = moves.size();
+    for (std::size_t q = 0; q < nb; ++q) {
+        ld* out = v[q].data();
+        for (int d = x.z + 1; d <= L; ++d) {
+            ld s = 0;
+            for (std::size_t i = 0; i < k; ++i) s += a[i] * out[d - moves[i]];
+            out[d] = s;
+        }
+    }
+    return v;
+}
+
+int scale_exponent(ld lambda, double mean_slow, double mean_fast) {
+    const double bits = -std::log2(static_cast<double>(lambda));
+    return static_cast<int>(std::lround(bits * (1 / mean_slow + 1 / mean_fast) / 2));
+}
+
+bool in_range(ld v) { return std::isfinite(v) && (v == 0 || (std::fabs(v) >= tiny_value && std::fabs(v) <= huge_value)); }
+
+// The first distance from which a scaled vector leaves the safe range (L + 1: never).
+int first_out_of_range(const std::vector<ld>& v, int L) {
+    for (int d = 1; d <= L; ++d)
+        if (!in_range(v[d])) return d;
+    return L + 1;
+}
+
+}  // namespace
+
+bool zone_tail_applies(const Option& a, const Option& b) {
+    for (const Option* o : {&a, &b})
+        if (o->weight[0] != 0 || o->max_move() > max_zone || o->max_move() < 1) return false;
+    return true;
+}
+
+ZoneTail zone_tail(const Option& a, const Option& b, const DistanceModel& da, const DistanceModel& db, Overshoot rule,
+                   OrderedRaces races, int L, double target) {
+    ZoneTail out;
+    out.first = L + 1;
+    if (!zone_tail_applies(a, b) || rule == Overshoot::bounce) return out;
+    // The fast piece (larger mean move) reaches its zone first.
+    out.fast_is_a = a.mean() > b.mean();
+    const Option& fast = out.fast_is_a ? a : b;
+    const Option& slow = out.fast_is_a ? b : a;
+    const DistanceModel& dF = out.fast_is_a ? da : db;
+    const DistanceModel& dS = out.fast_is_a ? db : da;
+    const ExactZone zf = exact_zone(fast, rule), zs = exact_zone(slow, rule);
+    const Modes m = zone_modes(zf);
+    if (!m.ok || m.states.empty()) return out;
+    const std::size_t n = m.states.size();
+    const double mean_s = slow.mean(), mean_f = fast.mean();
+    // Rounding depth (elementary operations on a path) per distance d: one
+    // level per square at most, each a sum of k products, a division and the
+    // coefficients' own roundings (docs/method.md, section 4.6).
+    const double ks = static_cast<double>(std::count_if(zs.w.begin(), zs.w.end(), [](auto w) { return w != 0; }));
+    const double kf = static_cast<double>(std::count_if(zf.w.begin(), zf.w.end(), [](auto w) { return w != 0; }));
+    auto depth = [&](int d) { return (ks + kf + 16) * (d + 1) + 2.0 * static_cast<double>(n) + 8; };
+    // Choose the cut: the smallest kept stay probability, each tried, keeping
+    // the one that covers the most lengths (fewer terms on a tie). When no
+    // square of the zone can be stayed on (the rule pass), the zone time is
+    // at most z rounds and no term is kept: the cut is then free.
+    std::vector<std::size_t> order(m.stay_w.size());
+    for (std::size_t j = 0; j < order.size(); ++j) order[j] = j;
+    std::sort(order.begin(), order.end(), [&](std::size_t x, std::size_t y) { return m.stay_w[x] > m.stay_w[y]; });
+    struct Cut {
+        ld lambda, inv, one_minus;
+        std::size_t kept;
+        ld factor;
+    };
+    std::vector<Cut> cuts;
+    if (m.nilpotent) {
+        for (const ld c : {0.875L, 0.75L, 0.5L, 0.25L, 0.125L})
+            cuts.push_back({c, 1 / c, 1 - c, 0, 1 + 2 * std::pow(1 / c, static_cast<ld>(zf.z))});
+    } else {
+        for (std::size_t oi = 0; oi < n; ++oi) {
+            const std::size_t j = order[oi];
+            if (m.lambda[j] < smallest_cut) break;
+            cuts.push_back({m.lambda[j], m.inv_lambda[j], m.one_minus[j], oi + 1, 1 + m.c_max + m.cp_max / m.lambda[j]});
+        }
+    }
+    std::vector<ld> ones(zf.z + 1, 1);
+    ones[0] = 0;
+    int best_first = L + 1;
+    std::size_t best_cut = 0;
+    std::vector<ld> best_eps;
+    // From the smallest cut up (the most terms, usually the most lengths);
+    // once a cut covers clearly fewer lengths than the best, larger ones will
+    // not do better (a choice of work only: every cut's bound is proven).
+    for (std::size_t ci = cuts.size(); ci-- > 0;) {
+        const Cut& cut = cuts[ci];
+        const int r = scale_exponent(cut.lambda, mean_s, mean_f);
+        const std::vector<ld> phi = finish_gf(zs, cut.lambda, cut.one_minus, r, L);
+        const std::vector<ld> psi = entry_gf(zf, cut.inv, r, L, {ones})[0];
+        const int bad = std::min(first_out_of_range(phi, L), first_out_of_range(psi, L));
+        if (bad <= L) continue;
+        std::vector<ld> eps(L + 1, 0);
+        int first = L + 1;
+        // Lengths inside a zone stay with the series (it needs them).
+        for (int d = L; d > std::max(zs.z, zf.z); --d) {
+            eps[d] = cut.factor * phi[d] * psi[d] * (1 + 4 * gamma_ld(depth(d)));
+            if (!(eps[d] <= target)) break;
+            first = d;
+        }
+        if (first < best_first) {
+            best_first = first;
+            best_cut = ci;
+            best_eps = std::move(eps);
+        } else if (best_first <= L && first > best_first + best_first / 2) {
+            break;
+        }
+    }
+    if (best_first > L) return out;
+    // The kept terms: every stay probability at or above the cut.
+    const std::size_t kept = cuts[best_cut].kept;
+    std::vector<ld> mx(L + 1, 0), me(L + 1, 0), mag(L + 1, 0);
+    int bad = L + 1;
+    for (std::size_t oi = 0; oi < kept; ++oi) {
+        const std::size_t j = order[oi];
+        const int r = scale_exponent(m.lambda[j], mean_s, mean_f);
+        const std::vector<ld> phi = finish_gf(zs, m.lambda[j], m.one_minus[j], r, L);
+        std::vector<std::vector<ld>> bnd(3, std::vector<ld>(zf.z + 1, 0));
+        for (std::size_t i = 0; i < n; ++i) {
+            const int e = m.states[i];
+            bnd[0][e] = m.c[i][j];
+            bnd[1][e] = m.cp[i][j] / m.lambda[j];
+            bnd[2][e] = std::fabs(m.c[i][j]) + std::fabs(m.cp[i][j]) / m.lambda[j];
+        }
+        const auto psi = entry_gf(zf, m.inv_lambda[j], r, L, bnd);
+        bad = std::min({bad, first_out_of_range(phi, L), first_out_of_range(psi[0], L), first_out_of_range(psi[1], L),
+                        first_out_of_range(psi[2], L)});
+        for (int d = 1; d <= L; ++d) {
+            mx[d] += phi[d] * psi[0][d];
+            me[d] += phi[d] * psi[1][d];
+            mag[d] += phi[d] * psi[2][d];
+        }
+    }
+    if (bad <= L) return out;
+    out.first = best_first;
+    out.modes = static_cast<int>(kept);
+    out.cut = static_cast<double>(cuts[best_cut].lambda);
+    if (races.simultaneous) out.sim.init(L);
+    if (races.a_first) out.af.init(L);
+    if (races.b_first) out.bf.init(L);
+    out.bound.assign(L + 1, 0);
+    const double u = unit_d;
+    for (int d = out.first; d <= L; ++d) {
+        const double hs = dS.p_ever[d], ks_ = dS.p_never[d], hf = dF.p_ever[d], kf_ = dF.p_never[d];
+        const double x = static_cast<double>(mx[d]), tie = static_cast<double>(me[d]);
+        // P(S first) = h_S K_F + X; P(F first) = h_F K_S + (h_S h_F - X - E).
+        const double s_first = hs * kf_ + x;
+        const double f_first = hf * ks_ + (hs * hf - x - tie);
+        const double rounding = static_cast<double>((gamma_ld(depth(d)) + 4 * std::numeric_limits<ld>::epsilon()) *
+                                                    mag[d] * (1 + 4 * gamma_ld(depth(d))));
+        out.bound[d] = static_cast<double>(best_eps[d]) * (1 + 1e-12) + rounding +
+                       4 * (dS.ever_never_error + dF.ever_never_error) + 16 * u;
+        const double win = out.fast_is_a ? f_first : s_first;  // A strictly first
+        const double loss = out.fast_is_a ? s_first : f_first;
+        if (races.simultaneous) {
+            out.sim.win[d] = win;
+            out.sim.loss[d] = loss;
+            out.sim.tie[d] = tie;
+        }
+        if (races.a_first) {
+            out.af.win[d] = win + tie;
+            out.af.loss[d] = loss;
+        }
+        if (races.b_first) {
+            out.bf.win[d] = win;
+            out.bf.loss[d] = loss + tie;
+        }
+    }
+    return out;
+}
+
+}  // namespace overshoot::lengths_engine
