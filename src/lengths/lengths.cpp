@@ -107,12 +107,28 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
                                                      tail_target);
             },
             s.cancel);
-    auto series_top = [&](std::size_t k) { return try_tail && tails[k].first <= L ? tails[k].first - 1 : L; };
+    // The series runs to the first length of the grid 2^(i/4) (rounded up)
+    // at or above the zone tail's first length, so that pairs share their
+    // series group (options are stepped once per group); the tail gives the
+    // lengths above. It depends on the pair and L only.
+    auto series_top = [&](std::size_t k) {
+        if (!try_tail || tails[k].first > L) return L;
+        const int need = tails[k].first - 1;
+        for (int i = 0;; ++i) {
+            const int grid = static_cast<int>(std::ceil(std::exp2(i / 4.0)));
+            if (grid >= need) {
+                if (grid >= L) return L;
+                tails[k].first = grid + 1;
+                return grid;
+            }
+        }
+    };
     std::vector<std::vector<std::size_t>> series_groups;  // one per cut length, in order of first appearance
+    std::vector<int> top_of(requests.size(), L);
     {
         std::vector<int> tops;
         for (std::size_t k : series_list) {
-            const int top = series_top(k);
+            const int top = top_of[k] = series_top(k);
             const auto it = std::find(tops.begin(), tops.end(), top);
             if (it == tops.end()) {
                 tops.push_back(top);
@@ -123,7 +139,7 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         }
     }
     auto series_job = [&](const std::vector<std::size_t>& group) {
-        const int top = series_top(group.front());
+        const int top = top_of[group.front()];
         std::vector<lengths_engine::SeriesPair> sp(group.size());
         std::vector<lengths_engine::SeriesOption> opts(options.size());
         if (top >= 1) {

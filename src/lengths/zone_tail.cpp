@@ -145,62 +145,95 @@ Modes zone_modes(const ExactZone& x) {
     return m;
 }
 
+// Several recursions of one piece run together: values v[d * jobs + q],
+// interleaved so that independent chains keep the long double unit busy.
+struct Job {
+    ld x = 0, one_minus = 0;  // the argument (lambda, or w = 1 / lambda) and 1 - lambda
+    int r = 0;                // scaling 2^(r d) (finishing) or 2^(-r d) (entry)
+    std::vector<ld> boundary;  // entry: values on the zone squares 1..z
+};
+
+// Row d of the free-walk recursions: v[d][q] = sum_i a[i][q] v[d - m_i][q],
+// four chains at a time in registers (the terms in the order of the moves,
+// as one chain alone would add them).
+void step(std::vector<ld>& v, const std::vector<ld>& a, const std::vector<int>& moves, std::size_t nq, int d) {
+    ld* out = &v[d * nq];
+    const std::size_t k = moves.size();
+    std::size_t q = 0;
+    for (; q + 4 <= nq; q += 4) {
+        ld s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+        for (std::size_t i = 0; i < k; ++i) {
+            const ld* src = &v[(d - moves[i]) * nq + q];
+            const ld* ai = &a[i * nq + q];
+            s0 += ai[0] * src[0];
+            s1 += ai[1] * src[1];
+            s2 += ai[2] * src[2];
+            s3 += ai[3] * src[3];
+        }
+        out[q] = s0;
+        out[q + 1] = s1;
+        out[q + 2] = s2;
+        out[q + 3] = s3;
+    }
+    for (; q < nq; ++q) {
+        ld s0 = 0;
+        for (std::size_t i = 0; i < k; ++i) s0 += a[i * nq + q] * v[(d - moves[i]) * nq + q];
+        out[q] = s0;
+    }
+}
+
 // 2^(r d) E[lambda^T; T < inf | d] for d = 0..L: the slow piece's finishing
 // time at lambda, its self-loops in closed form ((1 - lambda) + lambda leave,
 // no cancellation), scaled by a power of two so it stays in range.
-std::vector<ld> finish_gf(const ExactZone& x, ld lambda, ld one_minus, int r, int L) {
-    std::vector<ld> v(L + 1, 0);
-    v[0] = 1;
+std::vector<ld> finish_gf(const ExactZone& x, const std::vector<Job>& jobs, int L) {
+    const std::size_t nq = jobs.size();
+    std::vector<ld> v(static_cast<std::size_t>(L + 1) * nq, 0);
+    for (std::size_t q = 0; q < nq; ++q) v[q] = 1;
     const ld den = static_cast<ld>(x.den);
-    std::vector<ld> a;
     std::vector<int> moves;
     for (int m = 1; m <= x.z; ++m)
-        if (x.w[m]) {
-            moves.push_back(m);
-            a.push_back(lambda * std::ldexp(static_cast<ld>(x.w[m]) / den, r * m));
-        }
-    const int zt = std::min(L, x.z);
-    for (int d = 1; d <= zt; ++d) {
-        ld num = std::ldexp(static_cast<ld>(x.fin[d]) / den, r * d);
-        for (std::size_t i = 0; i < moves.size() && moves[i] < d; ++i)
-            num += std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, r * moves[i]) * v[d - moves[i]];
-        const ld leave = static_cast<ld>(x.den - x.stay[d]) / den;
-        v[d] = lambda * num / (one_minus + lambda * leave);
-    }
+        if (x.w[m]) moves.push_back(m);
     const std::size_t k = moves.size();
+    const int zt = std::min(L, x.z);
+    for (std::size_t q = 0; q < nq; ++q) {
+        const Job& j = jobs[q];
+        for (int d = 1; d <= zt; ++d) {
+            ld num = std::ldexp(static_cast<ld>(x.fin[d]) / den, j.r * d);
+            for (std::size_t i = 0; i < k && moves[i] < d; ++i)
+                num += std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, j.r * moves[i]) * v[(d - moves[i]) * nq + q];
+            const ld leave = static_cast<ld>(x.den - x.stay[d]) / den;
+            v[d * nq + q] = j.x * num / (j.one_minus + j.x * leave);
+        }
+    }
+    std::vector<ld> a(k * nq);
+    for (std::size_t i = 0; i < k; ++i)
+        for (std::size_t q = 0; q < nq; ++q)
+            a[i * nq + q] = jobs[q].x * std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, jobs[q].r * moves[i]);
     for (int d = zt + 1; d <= L; ++d) {
-        ld s = 0;
-        for (std::size_t i = 0; i < k; ++i) s += a[i] * v[d - moves[i]];
-        v[d] = s;
+        step(v, a, moves, nq, d);
     }
     return v;
 }
 
-// 2^(-r d) sum_e b_q(e) E[w^tau; enters the zone at e | d] for d = 0..L and
-// each boundary vector b_q (given on distances 1..z): the fast piece's
-// zone-entry time tau at w, several boundaries in one pass.
-std::vector<std::vector<ld>> entry_gf(const ExactZone& x, ld w, int r, int L,
-                                      const std::vector<std::vector<ld>>& boundary) {
-    const std::size_t nb = boundary.size();
-    std::vector<std::vector<ld>> v(nb, std::vector<ld>(L + 1, 0));
+// 2^(-r d) sum_e b(e) E[w^tau; enters the zone at e | d] for d = 0..L and
+// each job's boundary b (on distances 1..z): the fast piece's zone-entry
+// time tau at w.
+std::vector<ld> entry_gf(const ExactZone& x, const std::vector<Job>& jobs, int L) {
+    const std::size_t nq = jobs.size();
+    std::vector<ld> v(static_cast<std::size_t>(L + 1) * nq, 0);
     const ld den = static_cast<ld>(x.den);
-    std::vector<ld> a;
     std::vector<int> moves;
     for (int m = 1; m <= x.z; ++m)
-        if (x.w[m]) {
-            moves.push_back(m);
-            a.push_back(w * std::ldexp(static_cast<ld>(x.w[m]) / den, -r * m));
-        }
-    for (int d = 1; d <= std::min(L, x.z); ++d)
-        for (std::size_t q = 0; q < nb; ++q) v[q][d] = std::ldexp(boundary[q][d], -r * d);
+        if (x.w[m]) moves.push_back(m);
     const std::size_t k = moves.size();
-    for (std::size_t q = 0; q < nb; ++q) {
-        ld* out = v[q].data();
-        for (int d = x.z + 1; d <= L; ++d) {
-            ld s = 0;
-            for (std::size_t i = 0; i < k; ++i) s += a[i] * out[d - moves[i]];
-            out[d] = s;
-        }
+    for (int d = 1; d <= std::min(L, x.z); ++d)
+        for (std::size_t q = 0; q < nq; ++q) v[d * nq + q] = std::ldexp(jobs[q].boundary[d], -jobs[q].r * d);
+    std::vector<ld> a(k * nq);
+    for (std::size_t i = 0; i < k; ++i)
+        for (std::size_t q = 0; q < nq; ++q)
+            a[i * nq + q] = jobs[q].x * std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, -jobs[q].r * moves[i]);
+    for (int d = x.z + 1; d <= L; ++d) {
+        step(v, a, moves, nq, d);
     }
     return v;
 }
@@ -212,10 +245,11 @@ int scale_exponent(ld lambda, double mean_slow, double mean_fast) {
 
 bool in_range(ld v) { return std::isfinite(v) && (v == 0 || (std::fabs(v) >= tiny_value && std::fabs(v) <= huge_value)); }
 
-// The first distance from which a scaled vector leaves the safe range (L + 1: never).
-int first_out_of_range(const std::vector<ld>& v, int L) {
+// The first distance from which a scaled value of any job leaves the safe range (L + 1: never).
+int first_out_of_range(const std::vector<ld>& v, std::size_t jobs, int L) {
     for (int d = 1; d <= L; ++d)
-        if (!in_range(v[d])) return d;
+        for (std::size_t q = 0; q < jobs; ++q)
+            if (!in_range(v[d * jobs + q])) return d;
     return L + 1;
 }
 
@@ -283,9 +317,9 @@ ZoneTail zone_tail(const Option& a, const Option& b, const DistanceModel& da, co
     for (std::size_t ci = cuts.size(); ci-- > 0;) {
         const Cut& cut = cuts[ci];
         const int r = scale_exponent(cut.lambda, mean_s, mean_f);
-        const std::vector<ld> phi = finish_gf(zs, cut.lambda, cut.one_minus, r, L);
-        const std::vector<ld> psi = entry_gf(zf, cut.inv, r, L, {ones})[0];
-        const int bad = std::min(first_out_of_range(phi, L), first_out_of_range(psi, L));
+        const std::vector<ld> phi = finish_gf(zs, {Job{cut.lambda, cut.one_minus, r, {}}}, L);
+        const std::vector<ld> psi = entry_gf(zf, {Job{cut.inv, 0, r, ones}}, L);
+        const int bad = std::min(first_out_of_range(phi, 1, L), first_out_of_range(psi, 1, L));
         if (bad <= L) continue;
         std::vector<ld> eps(L + 1, 0);
         int first = L + 1;
@@ -306,12 +340,11 @@ ZoneTail zone_tail(const Option& a, const Option& b, const DistanceModel& da, co
     if (best_first > L) return out;
     // The kept terms: every stay probability at or above the cut.
     const std::size_t kept = cuts[best_cut].kept;
-    std::vector<ld> mx(L + 1, 0), me(L + 1, 0), mag(L + 1, 0);
-    int bad = L + 1;
+    std::vector<Job> fin_jobs, entry_jobs;
     for (std::size_t oi = 0; oi < kept; ++oi) {
         const std::size_t j = order[oi];
         const int r = scale_exponent(m.lambda[j], mean_s, mean_f);
-        const std::vector<ld> phi = finish_gf(zs, m.lambda[j], m.one_minus[j], r, L);
+        fin_jobs.push_back({m.lambda[j], m.one_minus[j], r, {}});
         std::vector<std::vector<ld>> bnd(3, std::vector<ld>(zf.z + 1, 0));
         for (std::size_t i = 0; i < n; ++i) {
             const int e = m.states[i];
@@ -319,15 +352,20 @@ ZoneTail zone_tail(const Option& a, const Option& b, const DistanceModel& da, co
             bnd[1][e] = m.cp[i][j] / m.lambda[j];
             bnd[2][e] = std::fabs(m.c[i][j]) + std::fabs(m.cp[i][j]) / m.lambda[j];
         }
-        const auto psi = entry_gf(zf, m.inv_lambda[j], r, L, bnd);
-        bad = std::min({bad, first_out_of_range(phi, L), first_out_of_range(psi[0], L), first_out_of_range(psi[1], L),
-                        first_out_of_range(psi[2], L)});
-        for (int d = 1; d <= L; ++d) {
-            mx[d] += phi[d] * psi[0][d];
-            me[d] += phi[d] * psi[1][d];
-            mag[d] += phi[d] * psi[2][d];
-        }
+        for (auto& b : bnd) entry_jobs.push_back({m.inv_lambda[j], 0, r, std::move(b)});
     }
+    const std::vector<ld> phi = finish_gf(zs, fin_jobs, L);
+    const std::vector<ld> psi = entry_gf(zf, entry_jobs, L);
+    const int bad = std::min(first_out_of_range(phi, kept, L), first_out_of_range(psi, 3 * kept, L));
+    std::vector<ld> mx(L + 1, 0), me(L + 1, 0), mag(L + 1, 0);
+    for (int d = 1; d <= L; ++d)
+        for (std::size_t q = 0; q < kept; ++q) {
+            const ld f = phi[d * kept + q];
+            const ld* e = &psi[(d * kept + q) * 3];
+            mx[d] += f * e[0];
+            me[d] += f * e[1];
+            mag[d] += f * e[2];
+        }
     if (bad <= L) return out;
     out.first = best_first;
     out.modes = static_cast<int>(kept);

@@ -73,6 +73,7 @@ VariantSweep analyse_variant(const std::vector<Option>& options, const Variant& 
     std::vector<int> no_winner;
     TournamentSettings ts;
     ts.max_cycle_length = std::max(3, std::min<int>(max_cycle_length, static_cast<int>(n)));
+    ts.want_mix = false;  // a length's summary has no equilibrium mix
     for (std::size_t k = 0; k < lengths.size(); ++k) {
         PairwiseMatrix m;
         for (const auto& o : options) m.names.push_back(o.name);

@@ -150,7 +150,7 @@ Tournament analyse(PairwiseMatrix matrix, const TournamentSettings& settings) {
                 t.counters[j].margin = t.margin[i * n + j];
             }
 
-    t.equilibrium = equilibrium_mix(n, t.margin);
+    if (settings.want_mix) t.equilibrium = equilibrium_mix(n, t.margin);
     return t;
 }
 

@@ -32,6 +32,7 @@ struct PairwiseMatrix {
 struct TournamentSettings {
     int max_cycle_length = 6;          // longest cycle listed (3 or more)
     std::size_t cycle_cap = 10'000;    // most cycles listed; cap_hit says when it cut
+    bool want_mix = true;              // the equilibrium mix (a linear programme); a sweep's lengths do not show it
 };
 
 struct Arc {
