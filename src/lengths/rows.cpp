@@ -243,7 +243,7 @@ bool zone_as_moves(const DistanceModel& B, int zb, std::vector<double>& fin) {
 // each): fresh pages cost more than the rows written on them. Buffers past
 // 32 MiB are let go after the call.
 struct Workspace {
-    std::vector<double> gw, gl, vbuf, hw, xw, xl, xbuf, yw, yl, fin;
+    std::vector<double> gw, gl, vbuf, hw, xw, xl, xbuf, yw, yl, fin, fin_a, zeros, zx;
 };
 Workspace& workspace() {
     static thread_local Workspace w;
@@ -268,6 +268,53 @@ inline void solve_cell(double xw, double xl, double yw, double yl, double sa, do
     vl = l;
     gw = sb * w + yw;
     gl = sb * l + yl;
+}
+
+// A row where the first piece may stay (its zone rows, or a move of 0), on
+// the second piece's free cells b in [lo, hi): Y from the finished cells
+// b - mv[i] in four partial sums (as free_terms), then solve_cell's closed
+// form V = (X + sa Y) / (la + sa lb(b)) (0 where that is 0) and G = sb V + Y.
+// A cell reads cells at least mv[0] before it, so with mv[0] >= 4 four cells
+// side by side read only finished ones; each lane does solve_cell's and
+// free_terms' operations in their order: the same bits.
+ROW_KERNEL void loop_cells(double* vw, double* vl, double* __restrict gw, double* __restrict gl,
+                           const double* __restrict xw, const double* __restrict xl, const int* mv, const double* mp,
+                           int nm, const double* lb, const double* sb, double sa, double la, int lo, int hi) {
+    const int n4 = nm - nm % 4;
+    const v4 zero = {0, 0, 0, 0};
+    int b = lo;
+    for (; b + 4 <= hi; b += 4) {
+        v4 w0 = zero, w1 = zero, w2 = zero, w3 = zero, l0 = zero, l1 = zero, l2 = zero, l3 = zero;
+        int i = 0;
+        for (; i < n4; i += 4) {
+            w0 += mp[i] * load(vw + b - mv[i]);
+            l0 += mp[i] * load(vl + b - mv[i]);
+            w1 += mp[i + 1] * load(vw + b - mv[i + 1]);
+            l1 += mp[i + 1] * load(vl + b - mv[i + 1]);
+            w2 += mp[i + 2] * load(vw + b - mv[i + 2]);
+            l2 += mp[i + 2] * load(vl + b - mv[i + 2]);
+            w3 += mp[i + 3] * load(vw + b - mv[i + 3]);
+            l3 += mp[i + 3] * load(vl + b - mv[i + 3]);
+        }
+        for (; i < nm; ++i) {
+            w0 += mp[i] * load(vw + b - mv[i]);
+            l0 += mp[i] * load(vl + b - mv[i]);
+        }
+        const v4 yw = (w0 + w1) + (w2 + w3), yl = (l0 + l1) + (l2 + l3);
+        const v4 den = la + sa * load(lb + b);
+        const v4 w = den > zero ? (load(xw + b) + sa * yw) / den : zero;
+        const v4 l = den > zero ? (load(xl + b) + sa * yl) / den : zero;
+        store(vw + b, w);
+        store(vl + b, l);
+        const v4 s = load(sb + b);
+        store(gw + b, s * w + yw);
+        store(gl + b, s * l + yl);
+    }
+    for (; b < hi; ++b) {
+        double yw, yl;
+        free_terms(mv, mp, nm, b, vw, vl, yw, yl);
+        solve_cell(xw[b], xl[b], yw, yl, sa, la, lb[b], sb[b], vw[b], vl[b], gw[b], gl[b]);
+    }
 }
 
 }  // namespace
@@ -446,6 +493,39 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
         }
         ++counts.scalar_rows;
     };
+    // A row where the first piece may stay, from its X rows: the closed-form
+    // self-loop cell by cell, the second piece's free cells side by side when
+    // its smallest move is at least 4 (loop_cells).
+    auto loop_row = [&](int a, const double* x_w, const double* x_l) {
+        const double sa = A.stay[a], la = A.leave[a];
+        double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
+        double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
+        const int cells = vectorised && nb > 0 && B.moves.front() >= 4 ? std::min(zb, top) : top;
+        for (int b = 1; b <= cells; ++b) {
+            double yw, yl;
+            if (b <= zb)
+                zone_terms(B, b, vw, vl, yw, yl);
+            else
+                free_terms(B.moves.data(), B.move_p.data(), nb, b, vw, vl, yw, yl);
+            solve_cell(x_w[b], x_l[b], yw, yl, sa, la, B.leave[b], B.stay[b], vw[b], vl[b], rw[b], rl[b]);
+        }
+        if (cells < top)
+            loop_cells(vw, vl, rw, rl, x_w, x_l, B.moves.data(), B.move_p.data(), nb, B.leave.data(), B.stay.data(),
+                       sa, la, cells + 1, top + 1);
+        dw[a] = vw[a];
+        dl[a] = vl[a];
+        counts.multiply_adds += 2 * static_cast<std::uint64_t>(nb) * Lu;
+        ++counts.scalar_rows;
+    };
+    // The first piece's zone rows as its moves then its finishing entry: X of
+    // up to four rows at once (block_rows, moves below 1 read a row of zeros),
+    // then the finishing term, the last one weighted_rows would add.
+    std::vector<double>& fin_a = ws.fin_a;
+    const bool zone_blocks = vectorised && mmin >= 2 && zone_as_moves(A, std::min(L, A.zone), fin_a);
+    std::vector<double>& zeros = ws.zeros;
+    zeros.assign(zone_blocks ? stride + 8 : 0, 0.0);
+    std::vector<double>& zx = ws.zx;
+    zx.assign(zone_blocks ? 8 * stride : 0, 0.0);
     int last_check = 0;
     for (int a = 1; a <= last;) {
         if (cancel && a - last_check >= 16) {
@@ -496,6 +576,30 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
             a += block;
             continue;
         }
+        const int R = zone_blocks && a <= A.zone ? std::min({mmin, 4, A.zone - a + 1, last - a + 1}) : 1;
+        if (R >= 2) {
+            // Rows at distance 0 and below are not sources (a move there finishes or
+            // stays): the kernel reads only from distance 1, and a row below that
+            // the block still meets is zeros (adding +0).
+            const int reach = std::max(mmin, std::min(mmax, a - 1));
+            for (int s2 = a - reach; s2 <= a + R - 1 - mmin; ++s2) {
+                const std::size_t off = s2 > 0 ? static_cast<std::size_t>(s2 % ring) * stride : 0;
+                rows_w[s2 - (a - reach)] = s2 > 0 ? gw.data() + off : zeros.data();
+                rows_l[s2 - (a - reach)] = s2 > 0 ? gl.data() + off : zeros.data();
+            }
+            double* ow[4] = {zx.data(), zx.data() + 2 * stride, zx.data() + 4 * stride, zx.data() + 6 * stride};
+            double* ol[4] = {ow[0] + stride, ow[1] + stride, ow[2] + stride, ow[3] + stride};
+            auto kernel = R == 4 ? block_rows4 : R == 3 ? block_rows3 : block_rows2;
+            kernel(ow, ol, rows_w.data(), rows_l.data(), pz.data(), mmin, reach, a, 1.0, 1, top + 1);
+            for (int r = 0; r < R; ++r) {
+                const double f = fin_a[a + r];
+                for (int b = 1; b <= top; ++b) ow[r][b] = ow[r][b] + f * hw[b];
+                counts.multiply_adds += (2 * static_cast<std::uint64_t>(a + r) - 1) * Lu;
+                loop_row(a + r, ow[r], ol[r]);
+            }
+            a += R;
+            continue;
+        }
         sw.clear();
         sl.clear();
         sp.clear();
@@ -529,23 +633,11 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
         }
         weighted_rows(xw.data(), sw.data(), sp.data(), k, 1.0, 1, top + 1);
         weighted_rows(xl.data(), sl.data(), sp.data(), k, 1.0, 1, top + 1);
-        double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
-        double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
-        for (int b = 1; b <= top; ++b) {
-            double yw, yl;
-            if (b <= zb)
-                zone_terms(B, b, vw, vl, yw, yl);
-            else
-                free_terms(B.moves.data(), B.move_p.data(), nb, b, vw, vl, yw, yl);
-            solve_cell(xw[b], xl[b], yw, yl, sa, la, B.leave[b], B.stay[b], vw[b], vl[b], rw[b], rl[b]);
-        }
-        dw[a] = vw[a];
-        dl[a] = vl[a];
-        counts.multiply_adds += 2 * static_cast<std::uint64_t>(nb) * Lu;
-        ++counts.scalar_rows;
+        loop_row(a, xw.data(), xl.data());
         ++a;
     }
-    for (auto* v : {&ws.gw, &ws.gl, &ws.vbuf, &ws.hw, &ws.xw, &ws.xl, &ws.xbuf, &ws.yw, &ws.yl, &ws.fin})
+    for (auto* v : {&ws.gw, &ws.gl, &ws.vbuf, &ws.hw, &ws.xw, &ws.xl, &ws.xbuf, &ws.yw, &ws.yl, &ws.fin, &ws.fin_a,
+                    &ws.zeros, &ws.zx})
         let_go_if_large(*v);
     return counts;
 }
