@@ -194,6 +194,14 @@ TEST_CASE("a Condorcet winner: pure equilibrium, no counter, transitive", "[tour
     CHECK(!t.strongest_cycle);
     CHECK(t.top_cycle == std::vector<std::size_t>{0});
     CHECK(t.equilibrium.weight[0] == Approx(1.0));
+    // The winner by margin is the one optimal mix (found without the linear
+    // programme): pure, value 0, and it gains its own margins against the rest.
+    CHECK(t.equilibrium.weight == std::vector<double>{1, 0, 0});
+    CHECK(t.equilibrium.support == std::vector<std::size_t>{0});
+    CHECK(t.equilibrium.value == 0);
+    CHECK(t.equilibrium.guaranteed[0] == 0);
+    CHECK(t.equilibrium.guaranteed[1] == t.margin[1]);
+    CHECK(t.equilibrium.guaranteed[2] == t.margin[2]);
 }
 
 TEST_CASE("Trybula's bound holds on every cycle of random race tournaments", "[tournament]") {

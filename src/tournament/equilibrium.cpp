@@ -31,6 +31,21 @@ EquilibriumMix equilibrium_mix(std::size_t n, const std::vector<double>& payoff)
         mix.support = {0};
         return mix;
     }
+    // A strict Condorcet winner by margin (w beats every other option by a
+    // positive margin) is the one optimal mix: weight anywhere else loses
+    // against w, so the linear programme would return pure w with value 0.
+    // A sweep asks for a mix per length; this case needs no programme.
+    for (std::size_t w = 0; w < n; ++w) {
+        bool winner = true;
+        for (std::size_t j = 0; j < n && winner; ++j) winner = j == w || payoff[w * n + j] > 0;
+        if (!winner) continue;
+        mix.weight[w] = 1;
+        mix.value = 0;
+        for (std::size_t j = 0; j < n; ++j)
+            if (j != w) mix.guaranteed[j] = payoff[w * n + j];
+        mix.support = {w};
+        return mix;
+    }
     glp_term_hook(silent, nullptr);
     std::unique_ptr<glp_prob, void (*)(glp_prob*)> lp(glp_create_prob(), glp_delete_prob);
     glp_set_obj_dir(lp.get(), GLP_MAX);
