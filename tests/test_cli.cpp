@@ -345,6 +345,19 @@ TEST_CASE("cli bad input: bad words for rule, order, method and flags", "[cli]")
 TEST_CASE("cli bad input: a method that does not apply to the board", "[cli]") {
     expect_one_line_error({"duel", "1d6", "2d6", "--length", "20", "--overshoot", "bounce", "--method", "pairs"},
                           "pairs");
+    expect_one_line_error({"duel", "1d6", "2d6", "--length", "200", "--method", "separated"}, "separated");
+    expect_one_line_error({"duel", "1d6", "2d6", "--length", "50000", "--overshoot", "bounce", "--method", "separated"},
+                          "separated");
+}
+
+TEST_CASE("cli: a long duel is closed by the separated method and names it", "[cli]") {
+    // 1d6 against 2d6 on 100,000 squares: the zone method's value (bench, old engine) to 12 digits.
+    Run r = run({"duel", "1d6", "2d6", "--length", "100000", "--json"});
+    REQUIRE(r.status == 0);
+    auto j = r.json();
+    CHECK(j["method"] == "separated");
+    CHECK(j["p_a_wins"].get<double>() == Approx(0.335688649974).margin(1e-12));
+    CHECK(j["median_rounds"] == 14332);
 }
 TEST_CASE("cli: a huge --memory-limit is refused with its limit, on every command", "[cli]") {
     // 2^44 MiB shifted to bytes would wrap a 64-bit cap to 0: one check (cli/arguments.cpp)

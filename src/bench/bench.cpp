@@ -14,6 +14,7 @@
 #include "core/error.hpp"
 #include "core/hash.hpp"
 #include "race/exact.hpp"
+#include "race/long_duel.hpp"
 #include "core/family.hpp"
 #include "hunt/hunt.hpp"
 #include "race/several_pieces.hpp"
@@ -153,6 +154,12 @@ BenchReport run_bench() {
         return out;
     });
     timed("duel 1d6 2d6 on 10000", [&] { return duel_on(10000, "1d6", "2d6", Order::simultaneous); });
+    // A long board as `overshoot duel` runs it: no chain, finishing windows apart.
+    timed("duel 1d6 2d6 on 1000000 from the board", [&] {
+        Board board = make_board(1'000'000, Overshoot::stay, {});
+        DuelResult r = duel_on_board(board, parse_option("1d6"), parse_option("2d6"), 0, 0, Order::simultaneous);
+        return duel_digest(r) + " " + std::to_string(r.median_rounds.value_or(-1));
+    });
     // A general board (jumps both ways, bounce): 66 duels by the series.
     timed("tournament 12 options, bounce, 6 jumps on 100", [&] {
         Board board = make_board(100, Overshoot::bounce, {{4, 25}, {21, 42}, {36, 6}, {51, 67}, {62, 19}, {87, 24}});

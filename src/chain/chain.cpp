@@ -8,10 +8,7 @@
 
 namespace overshoot {
 
-namespace {
-
-// Where one move of `m` squares from `s` ends, after the overshoot rule and jumps.
-int destination(const Board& b, int s, int m) {
+int move_destination(const Board& b, int s, int m) {
     const int n = b.length;
     int t = s + m;
     if (t < n) return b.after_jumps[t];
@@ -27,6 +24,8 @@ int destination(const Board& b, int s, int m) {
     }
     return s;
 }
+
+namespace {
 
 // Marks every square from which some square of `targets` (the finish is
 // square N) can be reached: one compressed graph of the reversed arcs, with a
@@ -79,7 +78,7 @@ void set_plain_block(Chain& c, const Board& board, const Option& option) {
     std::vector<int> in_moves(static_cast<std::size_t>(n) + 1, 0);
     for (int s = 0; s < n; ++s)
         for (int m = 0; m <= option.max_move(); ++m)
-            if (option.weight[m] != 0) ++in_moves[destination(board, s, m)];
+            if (option.weight[m] != 0) ++in_moves[move_destination(board, s, m)];
     c.max_in_moves = *std::max_element(in_moves.begin(), in_moves.end());
 }
 
@@ -114,7 +113,7 @@ Chain build_chain(const Board& board, const Option& option, int start) {
         std::uint64_t stay = 0;
         for (int m = 0; m <= option.max_move(); ++m) {
             if (option.weight[m] == 0) continue;
-            const int d = destination(board, s, m);
+            const int d = move_destination(board, s, m);
             if (d == s)
                 stay += option.weight[m];
             else

@@ -57,6 +57,10 @@ struct Chain {
     int rows() const { return length; }
 };
 
+// Where one move of `move` squares from `square` ends, after the overshoot
+// rule and jumps (the finish is `length`).
+int move_destination(const Board& board, int square, int move);
+
 // Builds the chain; throws LimitError when its size would exceed the memory cap.
 // `start` is the piece's start square as given (resolve_start validates it).
 Chain build_chain(const Board& board, const Option& option, int start = 0);

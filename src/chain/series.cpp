@@ -68,6 +68,33 @@ BasicSeries<Real>::BasicSeries(const Chain& c, int start) : c_(&c), v_(c.length,
 }
 
 template <class Real>
+BasicSeries<Real>::BasicSeries(const Chain& c, const std::vector<Real>& mass, int low, int turn, long double error)
+    : c_(&c), v_(c.length, 0), next_(c.length, 0), t_(turn) {
+    gamma_ = gamma_of<Real>(std::max(c.max_in_degree, c.max_in_moves) + 3);  // as above
+    trim_ = Real(1e-20L);
+    int lo = c.length, hi = -1;
+    Real alive = 0, stuck = 0;
+    for (std::size_t i = 0; i < mass.size(); ++i) {
+        const int s = low + static_cast<int>(i);
+        if (mass[i] == 0) continue;
+        if (c.stuck[s]) {
+            stuck += mass[i];
+            continue;
+        }
+        v_[s] = mass[i];
+        alive += mass[i];
+        lo = std::min(lo, s);
+        hi = std::max(hi, s);
+    }
+    lo_ = hi >= 0 ? lo : 0;
+    hi_ = hi >= 0 ? hi : 0;
+    alive_ = alive;
+    stuck_ = stuck;
+    // The start's own error, and the two sums just taken.
+    rounding_ = error + gamma_of<Real>(static_cast<double>(mass.size()) + 1) * (alive_ + stuck_);
+}
+
+template <class Real>
 long double BasicSeries<Real>::step() {
     const Chain& c = *c_;
     const int n = c.length;

@@ -17,6 +17,11 @@ public:
     // finish, and its square does not matter.
     // start < 0: the chain's own start square (0 or its head start).
     explicit BasicSeries(const Chain& chain, int start = -1);
+    // A series already at turn `turn`, with `mass[i]` on square `low + i`
+    // (mass on stuck squares is set aside) and nothing finished; `error`
+    // bounds the 1-norm distance of that start to the exact distribution and
+    // is carried in rounding_bound().
+    BasicSeries(const Chain& chain, const std::vector<Real>& mass, int low, int turn, long double error);
 
     // Advances one turn; returns P(T = t) for the new t.
     long double step();

@@ -8,6 +8,7 @@
 #include "cli/registry.hpp"
 #include "race/duel.hpp"
 #include "race/exact.hpp"
+#include "race/long_duel.hpp"
 #include "render/duel.hpp"
 
 namespace overshoot::cli {
@@ -26,11 +27,12 @@ void run(DuelArgs a) {
     Setup s = resolve_setup(a.board, a.specs, 2, 2);
     DuelSettings ds;
     ds.method = parse_duel_method(a.method);
-    Chain ca = build_chain(s.board, s.options[0], s.starts[0]);
-    Chain cb = build_chain(s.board, s.options[1], s.starts[1]);
-    DuelResult r = duel(ca, cb, s.order, ds);
+    // Long boards: no chain is built when the finishing windows lie apart.
+    DuelResult r = duel_on_board(s.board, s.options[0], s.options[1], s.starts[0], s.starts[1], s.order, ds);
     std::optional<ExactDuel> ex;
-    if (a.exact) ex = exact_duel(ca, cb, s.order);  // refuses (exit 2) with the reason
+    if (a.exact)  // refuses (exit 2) with the reason
+        ex = exact_duel(build_chain(s.board, s.options[0], s.starts[0]), build_chain(s.board, s.options[1], s.starts[1]),
+                        s.order);
     const ExactDuel* e = ex ? &*ex : nullptr;
     const Option &oa = s.options[0], &ob = s.options[1];
     const std::string format = a.out.chosen();
@@ -52,8 +54,8 @@ const Registration reg(20, [](CLI::App& app) {
     set_usage(*cmd, "A B", "the two options: specs such as 1d6, 2d6, [1,2,6] or {1:3,4:1} (docs/options.md), or option names from --scenario");
     add_board_flags(*cmd, args->board);
     add_output_flags(*cmd, args->out, {"text", "json", "md", "latex"});
-    cmd->add_option("--method", args->method, "auto, pairs, zone, series or product (docs/method.md)")
-        ->check(one_of({"auto", "pairs", "zone", "series", "product"}));
+    cmd->add_option("--method", args->method, "auto, pairs, zone, series, product or separated (docs/method.md)")
+        ->check(one_of({"auto", "pairs", "zone", "series", "product", "separated"}));
     cmd->add_flag("--exact", args->exact, "also give every probability as an exact fraction (docs/exact.md)");
     cmd->callback([args, cmd] {
         args->specs = option_words(*cmd);

@@ -65,6 +65,15 @@ int resolve_start(const Board& board, int start) {
     return r;
 }
 
+Board board_from(const Board& board, int from) {
+    if (from < 0 || from >= board.length || board.after_jumps[from] != from)
+        throw InternalError(fmt::format("board_from: square {} is not a resting square of the board", from));
+    std::vector<Jump> shifted;
+    for (const Jump& j : board.jumps)
+        if (j.from > from) shifted.push_back({j.from - from, j.to - from});
+    return make_board(board.length - from, board.rule, std::move(shifted));
+}
+
 std::string_view to_string(Overshoot rule) {
     switch (rule) {
         case Overshoot::stay: return "stay";

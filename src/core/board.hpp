@@ -38,6 +38,12 @@ Board make_board(int length, Overshoot rule, std::vector<Jump> jumps);
 // the jump at once. Throws InputError.
 int resolve_start(const Board& board, int start);
 
+// The board seen from square `from` onward, renumbered to start on 0: length
+// `length - from`, the jumps whose source lies past `from`, shifted. On a board
+// where pieces never move backward a piece on `from` or beyond lives on it
+// exactly. `from` must not be a jump source.
+Board board_from(const Board& board, int from);
+
 std::string_view to_string(Overshoot rule);
 std::string_view to_string(Order order);
 Overshoot parse_overshoot(std::string_view text);  // throws InputError

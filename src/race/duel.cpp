@@ -30,6 +30,7 @@ std::string_view to_string(DuelMethod m) {
         case DuelMethod::zone: return "zone";
         case DuelMethod::series: return "series";
         case DuelMethod::product: return "product";
+        case DuelMethod::separated: return "separated";
     }
     return "?";
 }
@@ -42,9 +43,9 @@ std::string to_string(const DuelMethods& m) {
 
 DuelMethod parse_duel_method(std::string_view t) {
     for (auto m : {DuelMethod::automatic, DuelMethod::pairs, DuelMethod::zone, DuelMethod::series,
-                   DuelMethod::product})
+                   DuelMethod::product, DuelMethod::separated})
         if (t == to_string(m)) return m;
-    throw InputError(fmt::format("method '{}': expected auto, pairs, zone, series or product", t));
+    throw InputError(fmt::format("method '{}': expected auto, pairs, zone, series, product or separated", t));
 }
 
 namespace {
@@ -297,6 +298,8 @@ Tally solve_ordered(const Chain& a, const Chain& b, bool a_first, const DuelSett
         }
         case DuelMethod::series: return series_method<Series>(a, b, a_first, s.target, s.work_limit);
         case DuelMethod::product: return product_method(a, b, a_first);
+        case DuelMethod::separated:
+            throw InputError("method separated works from the board and the options, not from built chains");
         case DuelMethod::automatic: break;
     }
     if (a.forward_only) {

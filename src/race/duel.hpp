@@ -17,6 +17,7 @@ enum class DuelMethod {
     zone,       // per-turn series, closed by the pair programme on the end zone
     series,     // per-turn series until the live mass is below the target
     product,    // sparse LU of the product chain (small boards; independent check)
+    separated,  // finishing windows proven apart: each piece's absorption (race/long_duel.hpp)
 };
 
 // The methods behind a result: under coin, `second` is the B-first race's
@@ -53,7 +54,8 @@ struct DuelResult {
     bool b_beats_a() const { return decided(margin(), error_bound()) < 0; }
 };
 
-// Both chains must be built on the same board.
+// Both chains must be built on the same board. Method `separated` works from
+// the board and the options instead (duel_on_board in race/long_duel.hpp).
 DuelResult duel(const Chain& a, const Chain& b, Order order, const DuelSettings& settings = {});
 
 // Every ordered pair of options on one board: result[i * n + j] is the duel of
