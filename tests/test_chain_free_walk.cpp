@@ -52,6 +52,17 @@ TEST_CASE("free walk: powering agrees with plain convolution within its bound", 
             CHECK(dist <= w.error + 1e-17L);  // the long double reference is itself rounded
             CHECK(w.error < 1e-11L);
             CHECK(std::fabs(total - 1) <= w.error + 1e-15L);
+            // In long double the bound is about 2^11 times narrower.
+            const auto wl = walk_mass<long double>(o, t, 1e-25);
+            long double dist_l = 0;
+            for (std::size_t k = 0; k < exact.size(); ++k) {
+                const long long i = static_cast<long long>(k) - wl.low;
+                const long double got = i >= 0 && i < static_cast<long long>(wl.mass.size()) ? wl.mass[i] : 0.0L;
+                dist_l += std::fabs(got - exact[k]);
+            }
+            // The reference: t plain convolutions, each exact to gamma_{m+2} in the 1-norm.
+            CHECK(dist_l <= wl.error + t * (o.max_move() + 3) * 5.5e-20L);
+            CHECK(wl.error < 1e-14L);
         }
     }
 }

@@ -91,6 +91,23 @@ TEST_CASE("separated agrees with the zone method on long boards, every order", "
     CHECK(separated == 4 * (3 * 3 + 1));  // every pair under pass, 1d6 against 2d6 under stay
 }
 
+TEST_CASE("separated with the faster piece's series jumped and stepped (3d6 lingers at distance 3)",
+          "[race][long-duel]") {
+    // On 40,000 squares under stay the decay bound over the end rows is too weak
+    // for 3d6 ((215/216)^6400 ~ 1e-13 at distance 3), so the faster piece's
+    // series, jumped by powering in long double, is stepped until its live mass
+    // is below 1e-15, before 1d6 can arrive. The zone method is the old engine.
+    const Board board = make_board(40000, Overshoot::stay, {});
+    const Option a = parse_option("3d6"), b = parse_option("1d6");
+    const auto fresh = separated_duel(board, a, b, 0, 0);
+    REQUIRE(fresh);
+    DuelSettings zs;
+    zs.method = DuelMethod::zone;
+    agree(*fresh, duel(build_chain(board, a), build_chain(board, b), Order::simultaneous, zs));
+    // 3d6 can end stuck, 1d6 cannot: neither finishes with probability 0.
+    CHECK(fresh->p_neither == 0);
+}
+
 TEST_CASE("separated: the exact fractions lie inside its bound", "[race][long-duel]") {
     // Exact fractions by the GMP pair programme (race/exact*), a different method.
     const Board board = make_board(400, Overshoot::pass, {});

@@ -2,6 +2,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 #include "chain/chain.hpp"
 #include "chain/series.hpp"
@@ -81,14 +82,21 @@ std::optional<long long> search_turns(const Option& o, long long distance, Pred&
     return hi;
 }
 
+// dst[i] += p * src[i]: vectorised for double; long double has no vector unit.
+void add_scaled(double* dst, const double* src, double p, long long n) { axpy(dst, src, p, static_cast<int>(n)); }
+void add_scaled(long double* __restrict dst, const long double* __restrict src, long double p, long long n) {
+    for (long long i = 0; i < n; ++i) dst[i] += p * src[i];
+}
+
 // Drops the far edges of `v` whose mass is below `trim` each; returns the mass dropped.
-long double trim_edges(std::vector<double>& v, long long& low, double trim) {
+template <class Real>
+long double trim_edges(std::vector<Real>& v, long long& low, double trim) {
     std::size_t a = 0, b = v.size();
     long double lo_mass = 0, hi_mass = 0;
     while (b - a > 1 && lo_mass + v[a] < trim) lo_mass += v[a++];
     while (b - a > 1 && hi_mass + v[b - 1] < trim) hi_mass += v[--b];
     if (a > 0 || b < v.size()) {
-        v = std::vector<double>(v.begin() + static_cast<long>(a), v.begin() + static_cast<long>(b));
+        v = std::vector<Real>(v.begin() + static_cast<long>(a), v.begin() + static_cast<long>(b));
         low += static_cast<long long>(a);
     }
     return lo_mass + hi_mass;
@@ -122,31 +130,33 @@ int first_irregular_square(const Board& board, int start) {
     return board.length;
 }
 
-WalkMass walk_mass(const Option& o, long long turns, double trim) {
-    const long double u = std::ldexp(1.0L, -53);
+template <class Real>
+BasicWalkMass<Real> walk_mass(const Option& o, long long turns, double trim) {
+    using Mass = BasicWalkMass<Real>;
+    const long double u = std::numeric_limits<Real>::epsilon() / 2;
     auto gamma = [&](long double n) { return n * u / (1 - n * u); };
-    WalkMass base;
+    Mass base;
     base.low = o.min_move();
     for (int m = o.min_move(); m <= o.max_move(); ++m)
-        base.mass.push_back(static_cast<double>(static_cast<long double>(o.weight[m]) / o.denominator));
+        base.mass.push_back(static_cast<Real>(static_cast<long double>(o.weight[m]) / o.denominator));
     base.error = u;  // each probability rounded once
-    WalkMass r;
+    Mass r;
     r.mass = {1.0};
     if (turns <= 0) return r;
     // Left to right over the bits of t: square, then one more move when the bit is set.
-    auto combine = [&](const WalkMass& a, const WalkMass& b) {
-        WalkMass c;
+    auto combine = [&](const Mass& a, const Mass& b) {
+        Mass c;
         c.low = a.low + b.low;
         const long long la = static_cast<long long>(a.mass.size()), lb = static_cast<long long>(b.mass.size());
         c.mass.assign(static_cast<std::size_t>(la + lb - 1), 0.0);
         if (&a == &b) {  // a square: each cross product once, doubled (exactly)
             for (long long i = 0; i < la; ++i) {
                 c.mass[2 * i] += a.mass[i] * a.mass[i];
-                if (i + 1 < la) axpy(&c.mass[2 * i + 1], &a.mass[i + 1], 2 * a.mass[i], static_cast<int>(la - i - 1));
+                if (i + 1 < la) add_scaled(&c.mass[2 * i + 1], &a.mass[i + 1], 2 * a.mass[i], la - i - 1);
             }
             c.work = a.work + static_cast<std::uint64_t>(la) * (la + 1) / 2;
         } else {
-            for (long long i = 0; i < la; ++i) axpy(&c.mass[i], b.mass.data(), a.mass[i], static_cast<int>(lb));
+            for (long long i = 0; i < la; ++i) add_scaled(&c.mass[i], b.mass.data(), a.mass[i], lb);
             c.work = a.work + static_cast<std::uint64_t>(la) * lb;
         }
         // Each sum has at most min(la, lb) products: gamma of that plus one, on
@@ -166,53 +176,60 @@ WalkMass walk_mass(const Option& o, long long turns, double trim) {
     }
     return r;
 }
+template BasicWalkMass<double> walk_mass<double>(const Option&, long long, double);
+template BasicWalkMass<long double> walk_mass<long double>(const Option&, long long, double);
+
+template <class Real>
+std::optional<JumpedStart<Real>> jumped_start(const Board& board, const Option& o, int start, long double escape,
+                                              double trim) {
+    if (!board.forward_only()) throw InternalError("jumped_start on a board where pieces move backward");
+    const int f = first_irregular_square(board, start);
+    const auto t0 = last_turn_short_of(o, f - start, escape);
+    if (!t0) return std::nullopt;  // never moves
+    BasicWalkMass<Real> w = walk_mass<Real>(o, *t0, trim);
+    // Squares from f on belong to the escaped mass already bounded.
+    const long long keep =
+        std::max(0LL, std::min<long long>(static_cast<long long>(w.mass.size()), f - start - w.low));
+    w.mass.resize(static_cast<std::size_t>(keep));
+    if (w.mass.empty()) return std::nullopt;
+    const int s0 = static_cast<int>(start + w.low);
+    JumpedStart<Real> j{build_chain(board_from(board, s0), o, 0), std::move(w.mass), s0,
+                        static_cast<int>(*t0), w.error + escape, w.work};
+    return j;
+}
+template std::optional<JumpedStart<double>> jumped_start<double>(const Board&, const Option&, int, long double,
+                                                                 double);
+template std::optional<JumpedStart<long double>> jumped_start<long double>(const Board&, const Option&, int,
+                                                                           long double, double);
 
 LevelTurn first_turn_at_level(const Board& board, const Option& o, int start, long double level, long double slack,
                               std::uint64_t work_limit) {
     LevelTurn out;
-    if (!board.forward_only()) throw InternalError("first_turn_at_level on a board where pieces move backward");
-    const int f = first_irregular_square(board, start);
-    // The walk stays short of f but for 1e-16 of its mass (counted in the bound).
+    // The walk stays short of its first irregular square but for 1e-16 of its mass.
     const long double escape = 1e-16L;
-    const auto t0 = last_turn_short_of(o, f - start, escape);
-    if (!t0) return out;  // never moves: never finishes, resolved below
-    WalkMass w = walk_mass(o, *t0, 1e-17);
-    out.work = w.work;
-    // Squares from f on belong to the escaped mass already bounded.
-    const long long keep = std::max(0LL, std::min<long long>(static_cast<long long>(w.mass.size()),
-                                                              f - start - w.low));
-    w.mass.resize(static_cast<std::size_t>(keep));
-    if (w.mass.empty()) return out;  // nothing left short of f: not a long walk
-    const int s0 = static_cast<int>(start + w.low);
-    const Board sub = board_from(board, s0);
-    const Chain c = build_chain(sub, o, 0);
-    FastSeries s(c, w.mass, 0, static_cast<int>(*t0), w.error + escape);
+    const auto j = jumped_start<double>(board, o, start, escape, 1e-17);
+    if (!j) return out;  // a walk that never moves, or nothing short of the square: unresolved
+    out.work = j->work;
+    FastSeries s(j->chain, j->mass, 0, j->turn, j->error);
     auto bound = [&] { return s.rounding_bound() + slack; };
-    // Before t0 the piece finished with probability at most `escape`.
+    // Before the jumped turn the piece finished with probability at most `escape`.
     if (level <= escape + slack) return out;
     while (true) {
         const long double before = s.finished();
         s.step();
         const long double now = s.finished();
+        out.work = j->work + s.work();
         if (now - bound() >= level) {
             out.turn = s.turn();
             out.resolved = before + bound() < level;
-            out.work += s.work();
             return out;
         }
-        if (now + bound() >= level) {  // too close to call at this turn
-            out.work += s.work();
+        if (now + bound() >= level) return out;  // too close to call at this turn
+        if (now + s.alive() + bound() < level) {  // never reaches the level
+            out.resolved = true;
             return out;
         }
-        if (s.alive() + bound() < level - now || s.alive() == 0) {  // never reaches the level
-            out.resolved = now + s.alive() + bound() < level;
-            out.work += s.work();
-            return out;
-        }
-        if (out.work + s.work() > work_limit) {
-            out.work += s.work();
-            return out;
-        }
+        if (s.alive() == 0 || out.work > work_limit) return out;
     }
 }
 

@@ -8,6 +8,7 @@
 #include <optional>
 #include <vector>
 
+#include "chain/chain.hpp"
 #include "core/board.hpp"
 #include "core/option.hpp"
 
@@ -32,13 +33,35 @@ int first_irregular_square(const Board& board, int start);
 // `error` bounds the 1-norm distance to the exact distribution: the rounding
 // of every convolution (gamma of its terms, doubled by each later squaring)
 // and every trimmed edge (below `trim` per edge per convolution).
-struct WalkMass {
-    std::vector<double> mass;
+template <class Real>
+struct BasicWalkMass {
+    std::vector<Real> mass;
     long long low = 0;
     long double error = 0;
     std::uint64_t work = 0;  // multiply-adds
 };
-WalkMass walk_mass(const Option& option, long long turns, double trim);
+using WalkMass = BasicWalkMass<double>;
+// Real: double (vectorised) or long double (unit roundoff 2^-64, for bounds near 1e-13).
+template <class Real = double>
+BasicWalkMass<Real> walk_mass(const Option& option, long long turns, double trim);
+
+// A piece's state at the last turn its walk surely stays short of its first
+// irregular square (all but `escape` of its mass, by Chernoff): the walk's
+// masses from square `from` on, and the chain of the board from `from` on
+// (board_from), on which a series starts with BasicSeries(chain, mass, 0,
+// turn, error). Null when the walk never moves or nothing is left short of
+// the square. Requires a board where pieces never move backward.
+template <class Real>
+struct JumpedStart {
+    Chain chain;
+    std::vector<Real> mass;
+    int from = 0, turn = 0;
+    long double error = 0;  // the walk's bound plus `escape`
+    std::uint64_t work = 0;
+};
+template <class Real>
+std::optional<JumpedStart<Real>> jumped_start(const Board& board, const Option& option, int start, long double escape,
+                                              double trim);
 
 // The first turn t with P(T <= t) >= level for one piece (T its finishing
 // turn), on a board where pieces never move backward: the walk jumps to the
