@@ -11,9 +11,10 @@ src/hunt/checkpoint.hpp and must hold at least the records of the one before
 it, and the result file is either absent or the full JSON document. The last
 resume runs to the end; its result must equal an uninterrupted run byte for
 byte. The checkpoint is saved about every 5 s, so the hunt is sized to run
-longer than that; the kill moments are drawn from the measured duration of
-the uninterrupted run (seeded, so the moments are the same run to run
-relative to that duration).
+longer than that; the kill moments are drawn from the CPU time of the
+uninterrupted run (seeded, so the moments are the same run to run relative to
+it), and a run is killed once it has used that much CPU: on a machine loaded
+by other work the clock stretches from run to run, CPU time much less.
 """
 import json
 import os
@@ -78,35 +79,49 @@ def read_checkpoint(path):
     return lengths, out
 
 
+def cpu_seconds(pid):
+    """User plus system seconds of a running process (/proc/PID/stat), or None once it is gone."""
+    try:
+        fields = open(f"/proc/{pid}/stat").read().rsplit(")", 1)[1].split()
+    except OSError:
+        return None
+    return (int(fields[11]) + int(fields[12])) / os.sysconf("SC_CLK_TCK")
+
+
 def run_hunt(extra, cwd, kill_after=None):
-    """Runs the hunt; with kill_after, SIGKILLs it after that many seconds.
-    Returns (exit status or None when killed, stderr)."""
+    """Runs the hunt; with kill_after, SIGKILLs it once it has used that many
+    seconds of CPU (CPU time, not the clock: a machine loaded by other work
+    stretches the clock, and a moment drawn from one run's clock would often
+    fall after the end of the next). Returns (exit status or None when killed, stderr)."""
     p = subprocess.Popen([BINARY] + HUNT + extra, cwd=cwd, stdout=subprocess.DEVNULL,
                          stderr=subprocess.PIPE)
     if kill_after is None:
         _, err = p.communicate()
         return p.returncode, err.decode()
-    try:
-        _, err = p.communicate(timeout=kill_after)
-        return p.returncode, err.decode()  # finished before the kill
-    except subprocess.TimeoutExpired:
-        p.send_signal(signal.SIGKILL)
-        p.communicate()
-        return None, ""
+    while p.poll() is None:
+        used = cpu_seconds(p.pid)
+        if used is not None and used >= kill_after:
+            p.send_signal(signal.SIGKILL)
+            p.communicate()
+            return None, ""
+        time.sleep(0.02)
+    _, err = p.communicate()
+    return p.returncode, err.decode()  # finished before the kill
 
 
 def main():
     with tempfile.TemporaryDirectory(prefix="overshoot-kill-") as d:
-        # The uninterrupted result, and how long it takes.
-        t0 = time.monotonic()
+        # The uninterrupted result, and how much CPU it takes.
+        before = os.times()
         st, err = run_hunt(["--output", "ref.json"], d)
-        duration = time.monotonic() - t0
+        after = os.times()
+        duration = (after.children_user - before.children_user) + (after.children_system - before.children_system)
         if st != 0:
             fail(f"uninterrupted hunt: exit {st}: {err}")
         ref = open(os.path.join(d, "ref.json"), "rb").read()
         total = json.loads(ref)["totals"]["pairs"]  # a complete document
         if duration < 6:
-            print(f"note: the hunt took only {duration:.1f} s; kills may land before the first checkpoint")
+            print(f"note: the hunt took only {duration:.1f} s of CPU; kills may land before the first checkpoint")
 
         rng = random.Random(20261201)
         cp = os.path.join(d, "hunt.ckpt")
@@ -152,7 +167,7 @@ def main():
                 previous = (body, recs)
             elif previous is not None:
                 fail(f"kill {kills}: the checkpoint disappeared")
-            print(f"kill {kills} at {moment:.2f} s of {duration:.2f} s: checkpoint "
+            print(f"kill {kills} at {moment:.2f} s of CPU of {duration:.2f} s: checkpoint "
                   f"{len(previous[1]) if previous else 0} pairs")
         if not finished:
             st, err = run_hunt(["--checkpoint", "hunt.ckpt", "--output", "out.json"] +
