@@ -179,6 +179,31 @@ BasicWalkMass<Real> walk_mass(const Option& o, long long turns, double trim) {
 template BasicWalkMass<double> walk_mass<double>(const Option&, long long, double);
 template BasicWalkMass<long double> walk_mass<long double>(const Option&, long long, double);
 
+Option chain_moves(const Chain& c) {
+    Option o;
+    o.denominator = c.denominator;
+    o.weight.assign(c.move_prob.size(), 0);
+    for (std::size_t m = 0; m < c.move_prob.size(); ++m)
+        o.weight[m] = static_cast<std::uint64_t>(std::llround(c.move_prob[m] * static_cast<long double>(c.denominator)));
+    return o;
+}
+
+int first_irregular_square(const Chain& c) {
+    for (int s = c.start + 1; s < c.length; ++s)
+        if (!c.resting[s]) return s;
+    return c.length;
+}
+
+std::optional<ChainWalk> chain_walk(const Chain& c, long long turns, long double escape) {
+    const int f = first_irregular_square(c);
+    BasicWalkMass<long double> w = walk_mass<long double>(chain_moves(c), turns, 1e-20);
+    const long long keep =
+        std::max(0LL, std::min<long long>(static_cast<long long>(w.mass.size()), f - c.start - w.low));
+    w.mass.resize(static_cast<std::size_t>(keep));
+    if (w.mass.empty()) return std::nullopt;
+    return ChainWalk{std::move(w.mass), static_cast<int>(c.start + w.low), w.error + escape};
+}
+
 template <class Real>
 std::optional<JumpedStart<Real>> jumped_start(const Board& board, const Option& o, int start, long double escape,
                                               double trim) {

@@ -45,6 +45,21 @@ using WalkMass = BasicWalkMass<double>;
 template <class Real = double>
 BasicWalkMass<Real> walk_mass(const Option& option, long long turns, double trim);
 
+// The piece of a built chain after `turns` turns, read off its free walk
+// (binary powering in long double): masses from square `low` on and the
+// 1-norm bound of the walk plus `escape`, which must bound P(S_turns >= f)
+// (the caller picks `turns` with last_turn_short_of). Null when nothing is
+// left short of f. The options' weights are recovered exactly from the
+// chain's move probabilities (den <= 2^62, long double).
+struct ChainWalk {
+    std::vector<long double> mass;
+    int low = 0;
+    long double error = 0;
+};
+Option chain_moves(const Chain& chain);
+int first_irregular_square(const Chain& chain);  // past the chain's start
+std::optional<ChainWalk> chain_walk(const Chain& chain, long long turns, long double escape);
+
 // A piece's state at the last turn its walk surely stays short of its first
 // irregular square (all but `escape` of its mass, by Chernoff): the walk's
 // masses from square `from` on, and the chain of the board from `from` on

@@ -14,6 +14,7 @@
 #include <type_traits>
 
 #include "chain/absorption.hpp"
+#include "chain/free_walk.hpp"
 #include "chain/series.hpp"
 #include "core/error.hpp"
 #include "core/limits.hpp"
@@ -118,11 +119,47 @@ std::optional<Tally> zone_method(const Chain& a, const Chain& b, bool a_first, l
     const int zb = std::max(0, n - (2 * b.max_move + 2));
     S sa(a), sb(b);
     Tally r;
-    long double pa = 1, pb = 1;
+    // Long boards: each piece jumps to the last turn its walk surely stays on
+    // plain squares (docs/method.md 4.2). The earlier one is stepped alone until
+    // the later one's turn (the later piece cannot finish before it), then both
+    // go on together. Before its turn each finished with probability at most
+    // `escape`, which the bound carries.
+    long double jumped = 0;
+    if constexpr (std::is_same_v<S, Series>) {
+        constexpr long double escape = 1e-16L;
+        const auto ta = last_turn_short_of(chain_moves(a), first_irregular_square(a) - a.start, escape);
+        const auto tb = last_turn_short_of(chain_moves(b), first_irregular_square(b) - b.start, escape);
+        const auto wa = ta && *ta >= 100 ? chain_walk(a, *ta, escape) : std::nullopt;
+        const auto wb = tb && *tb >= 100 ? chain_walk(b, *tb, escape) : std::nullopt;
+        if (wa && wb) {
+            const bool a_early = *ta <= *tb;
+            S& early = a_early ? sa : sb;
+            early = a_early ? S(a, wa->mass, wa->low, static_cast<int>(*ta), wa->error)
+                            : S(b, wb->mass, wb->low, static_cast<int>(*tb), wb->error);
+            const long long later = a_early ? *tb : *ta;
+            long double before = early.survival();
+            while (early.turn() < later) {
+                const long double f = early.step();
+                if (a_early)
+                    add_round(r, a_first, early.turn(), f, 0, before, 1, early.survival(), 1);
+                else
+                    add_round(r, a_first, early.turn(), 0, f, 1, before, 1, early.survival());
+                before = early.survival();
+                if (!r.median_done && 1.0L - before >= 0.5L) {
+                    r.median = early.turn();
+                    r.median_done = true;
+                }
+            }
+            (a_early ? sb : sa) = a_early ? S(b, wb->mass, wb->low, static_cast<int>(*tb), wb->error)
+                                          : S(a, wa->mass, wa->low, static_cast<int>(*ta), wa->error);
+            jumped = 2 * escape;
+        }
+    }
+    long double pa = sa.survival(), pb = sb.survival();
     while (true) {
         long double outside = sa.alive_below(za) + sb.alive_below(zb);
         if (outside < target) {
-            r.bound = outside;
+            r.bound = outside + jumped;
             break;
         }
         if (sa.work() + sb.work() > budget) return std::nullopt;
