@@ -75,7 +75,10 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
         const DistanceModel& A = dist[requests[k].a];
         const DistanceModel& B = dist[requests[k].b];
         const double est = lengths_engine::turns_estimate(A, B, s.close_target);
-        to_series[k] = lengths_engine::series_chosen(s.method, est, L) ? 1 : 0;
+        // --method zone-tail: the series below the zone tail on every pair it applies to.
+        const bool forced = s.method == LengthMethod::zone_tail &&
+                            lengths_engine::zone_tail_applies(options[requests[k].a], options[requests[k].b]);
+        to_series[k] = forced || lengths_engine::series_chosen(s.method, est, L) ? 1 : 0;
     }
     std::mutex done_mutex;
     auto finish = [&](std::size_t k, std::vector<LengthOutcome> v, LengthMethod method, int tail_from = 0) {

@@ -50,14 +50,15 @@ double turns_estimate(const DistanceModel& a, const DistanceModel& b, double tar
 
 bool series_chosen(LengthMethod method, double turns, int max_length) {
     switch (method) {
-        case LengthMethod::series:
-        case LengthMethod::zone_tail: return true;
+        case LengthMethod::series: return true;
         case LengthMethod::pairs:
         case LengthMethod::pairs_scalar:
         case LengthMethod::closure: return false;
         // Measured (docs/sweep.md): the series costs about 2 T (kA + kB) L
         // against 1.3 L^2 (kA + kB) for the programme.
-        case LengthMethod::automatic: return turns <= 0.6 * max_length;
+        // zone_tail: auto's choice for pairs the zone tail cannot take (all_lengths).
+        case LengthMethod::automatic:
+        case LengthMethod::zone_tail: return turns <= 0.6 * max_length;
         case LengthMethod::board: break;  // not a method of the all-lengths engine
     }
     throw InternalError("series_chosen: board is not an all-lengths method");
@@ -66,7 +67,7 @@ bool series_chosen(LengthMethod method, double turns, int max_length) {
 bool closure_chosen(LengthMethod method, const DistanceModel& a, const DistanceModel& b, int max_length) {
     if (!closure_applies(a, b)) return false;
     if (method == LengthMethod::closure) return true;
-    if (method != LengthMethod::automatic) return false;
+    if (method != LengthMethod::automatic && method != LengthMethod::zone_tail) return false;
     // The whole programme does 2 L^2 (kA + kB) multiply-adds (both orders of a
     // coin race alike); the closure's are estimated the same way.
     const double L = max_length;

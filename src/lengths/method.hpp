@@ -24,7 +24,8 @@ namespace overshoot {
 // zone_tail: the series on the short lengths and, from the length where its
 // proven bound meets the target, the zone-tail sums (zone_tail.hpp); auto
 // takes it for every series pair where it covers some length, `series`
-// keeps the series alone.
+// keeps the series alone; zone_tail forces it on every pair it applies to
+// (auto's choice for the others).
 enum class LengthMethod { automatic, series, pairs, pairs_scalar, board, closure, zone_tail };
 
 std::string_view to_string(LengthMethod m);
