@@ -100,16 +100,27 @@ std::vector<PairLengths> all_lengths(const std::vector<Option>& options, Oversho
     // the pair and L alone: the series of each cut length runs on its own).
     std::vector<lengths_engine::ZoneTail> tails(requests.size());
     const bool try_tail = s.method == LengthMethod::automatic || s.method == LengthMethod::zone_tail;
-    if (try_tail)
+    if (try_tail) {
+        // Each option's zone once (exact coefficients), then every pair.
+        std::vector<char> in_series(options.size(), 0);
+        for (std::size_t k : series_list) in_series[requests[k].a] = in_series[requests[k].b] = 1;
+        std::vector<lengths_engine::ZoneChain> chains(options.size());
+        parallel_for(
+            options.size(), s.threads,
+            [&](std::size_t i) {
+                if (in_series[i]) chains[i] = lengths_engine::zone_chain(options[i], rule);
+            },
+            s.cancel);
         parallel_for(
             series_list.size(), s.threads,
             [&](std::size_t q) {
                 const std::size_t k = series_list[q];
                 const std::size_t a = requests[k].a, b = requests[k].b;
-                tails[k] = lengths_engine::zone_tail(options[a], options[b], dist[a], dist[b], rule, needed_races(order), L,
-                                                     tail_target);
+                tails[k] = lengths_engine::zone_tail(options[a], options[b], chains[a], chains[b], dist[a], dist[b],
+                                                     needed_races(order), L, tail_target);
             },
             s.cancel);
+    }
     // The series runs to the first length of the grid 2^(i/4) (rounded up)
     // at or above the zone tail's first length, so that pairs share their
     // series group (options are stepped once per group); the tail gives the

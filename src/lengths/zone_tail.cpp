@@ -10,9 +10,9 @@
 
 namespace overshoot::lengths_engine {
 
-namespace {
-
 using ld = long double;
+
+namespace {
 
 // Scaled values outside this range would lose the relative accuracy the
 // bound assumes (overflow, or gradual underflow): such a length and every
@@ -21,15 +21,6 @@ constexpr ld huge_value = 1e4700L;
 constexpr ld tiny_value = 1e-4700L;
 constexpr int max_zone = 40;
 constexpr double smallest_cut = 0.01;  // stay probabilities below this are always bounded, never kept
-
-// One piece's end zone from its integer weights (distances 1..z, z its
-// largest move): the weight of staying and of finishing at each distance;
-// a move m < e goes to e - m with weight w[m].
-struct ExactZone {
-    int z = 0;
-    std::uint64_t den = 1;
-    std::vector<std::uint64_t> w, stay, fin;  // w by move, stay and fin by distance
-};
 
 ExactZone exact_zone(const Option& o, Overshoot rule) {
     ExactZone x;
@@ -56,20 +47,6 @@ ld to_ld(const mpq_class& q) {
     mpf_class rest = f - hi;
     return static_cast<ld>(hi) + static_cast<ld>(rest.get_d());
 }
-
-// The fast piece's zone survival as geometric terms:
-// P(n < N < inf | e) = sum_j c[e][j] s_j^n (n >= 0) and
-// P(N = n | e) = sum_j c'[e][j] s_j^(n-1) (n >= 1), over the distances j of
-// the zone that can still finish (s_j their stay probability, all distinct).
-struct Modes {
-    std::vector<int> states;             // distances that can finish, ascending
-    std::vector<std::vector<ld>> c, cp;  // [state index][mode index]
-    std::vector<ld> lambda, inv_lambda, one_minus;  // per mode
-    std::vector<std::uint64_t> stay_w;
-    ld c_max = 0, cp_max = 0;            // largest row sums of |c| and |c'|
-    bool ok = false;
-    bool nilpotent = false;              // no square can be stayed on: no terms, the zone time is at most z
-};
 
 Modes zone_modes(const ExactZone& x) {
     Modes m;
@@ -261,19 +238,29 @@ bool zone_tail_applies(const Option& a, const Option& b) {
     return true;
 }
 
-ZoneTail zone_tail(const Option& a, const Option& b, const DistanceModel& da, const DistanceModel& db, Overshoot rule,
-                   OrderedRaces races, int L, double target) {
+ZoneChain zone_chain(const Option& o, Overshoot rule) {
+    ZoneChain c;
+    if (o.weight[0] != 0 || o.max_move() > max_zone || o.max_move() < 1 || rule == Overshoot::bounce) return c;
+    c.zone = exact_zone(o, rule);
+    c.modes = zone_modes(c.zone);
+    c.usable = true;
+    return c;
+}
+
+ZoneTail zone_tail(const Option& a, const Option& b, const ZoneChain& ca, const ZoneChain& cb, const DistanceModel& da,
+                   const DistanceModel& db, OrderedRaces races, int L, double target) {
     ZoneTail out;
     out.first = L + 1;
-    if (!zone_tail_applies(a, b) || rule == Overshoot::bounce) return out;
+    if (!zone_tail_applies(a, b) || !ca.usable || !cb.usable) return out;
     // The fast piece (larger mean move) reaches its zone first.
     out.fast_is_a = a.mean() > b.mean();
     const Option& fast = out.fast_is_a ? a : b;
     const Option& slow = out.fast_is_a ? b : a;
     const DistanceModel& dF = out.fast_is_a ? da : db;
     const DistanceModel& dS = out.fast_is_a ? db : da;
-    const ExactZone zf = exact_zone(fast, rule), zs = exact_zone(slow, rule);
-    const Modes m = zone_modes(zf);
+    const ExactZone& zf = (out.fast_is_a ? ca : cb).zone;
+    const ExactZone& zs = (out.fast_is_a ? cb : ca).zone;
+    const Modes& m = (out.fast_is_a ? ca : cb).modes;
     if (!m.ok || m.states.empty()) return out;
     const std::size_t n = m.states.size();
     const double mean_s = slow.mean(), mean_f = fast.mean();
