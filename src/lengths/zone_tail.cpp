@@ -122,98 +122,103 @@ Modes zone_modes(const ExactZone& x) {
     return m;
 }
 
-// Several recursions of one piece run together: values v[d * jobs + q],
-// interleaved so that independent chains keep the long double unit busy.
+// Several recursions of one piece, run together over the distance.
 struct Job {
     ld x = 0, one_minus = 0;  // the argument (lambda, or w = 1 / lambda) and 1 - lambda
     int r = 0;                // scaling 2^(r d) (finishing) or 2^(-r d) (entry)
     std::vector<ld> boundary;  // entry: values on the zone squares 1..z
 };
 
-// Row d of the free-walk recursions: v[d][q] = sum_i a[i][q] v[d - m_i][q],
-// four chains at a time in registers (the terms in the order of the moves,
-// as one chain alone would add them).
-void step(std::vector<ld>& v, const std::vector<ld>& a, const std::vector<int>& moves, std::size_t nq, int d) {
-    ld* out = &v[d * nq];
-    const std::size_t k = moves.size();
-    std::size_t q = 0;
-    for (; q + 4 <= nq; q += 4) {
-        ld s0 = 0, s1 = 0, s2 = 0, s3 = 0;
-        for (std::size_t i = 0; i < k; ++i) {
-            const ld* src = &v[(d - moves[i]) * nq + q];
-            const ld* ai = &a[i * nq + q];
-            s0 += ai[0] * src[0];
-            s1 += ai[1] * src[1];
-            s2 += ai[2] * src[2];
-            s3 += ai[3] * src[3];
-        }
-        out[q] = s0;
-        out[q + 1] = s1;
-        out[q + 2] = s2;
-        out[q + 3] = s3;
+// Either the slow piece's finishing time, 2^(r d) E[lambda^T; T < inf | d]
+// (self-loops in closed form: (1 - lambda) + lambda leave, no cancellation),
+// or the fast piece's zone entry, 2^(-r d) sum_e b(e) E[w^tau; enters at e | d],
+// for d = 1, 2, ... one row at a time. Rows are kept in a ring of z + 1 (a
+// row reads at most z rows back), the jobs of a row side by side so that
+// independent chains keep the long double unit busy; the power-of-two
+// scaling is exact and keeps the values in range.
+class Recursion {
+  public:
+    Recursion(const ExactZone& x, std::vector<Job> jobs, bool finishing)
+        : x_(x), jobs_(std::move(jobs)), finishing_(finishing), nq_(jobs_.size()), span_(x.z + 1),
+          ring_(static_cast<std::size_t>(span_) * nq_, 0) {
+        const ld den = static_cast<ld>(x.den);
+        for (int m = 1; m <= x.z; ++m)
+            if (x.w[m]) moves_.push_back(m);
+        a_.resize(moves_.size() * nq_);
+        for (std::size_t i = 0; i < moves_.size(); ++i)
+            for (std::size_t q = 0; q < nq_; ++q)
+                a_[i * nq_ + q] = jobs_[q].x * std::ldexp(static_cast<ld>(x.w[moves_[i]]) / den,
+                                                          (finishing ? 1 : -1) * jobs_[q].r * moves_[i]);
     }
-    for (; q < nq; ++q) {
-        ld s0 = 0;
-        for (std::size_t i = 0; i < k; ++i) s0 += a[i * nq + q] * v[(d - moves[i]) * nq + q];
-        out[q] = s0;
-    }
-}
 
-// 2^(r d) E[lambda^T; T < inf | d] for d = 0..L: the slow piece's finishing
-// time at lambda, its self-loops in closed form ((1 - lambda) + lambda leave,
-// no cancellation), scaled by a power of two so it stays in range.
-std::vector<ld> finish_gf(const ExactZone& x, const std::vector<Job>& jobs, int L) {
-    const std::size_t nq = jobs.size();
-    std::vector<ld> v(static_cast<std::size_t>(L + 1) * nq, 0);
-    for (std::size_t q = 0; q < nq; ++q) v[q] = 1;
-    const ld den = static_cast<ld>(x.den);
-    std::vector<int> moves;
-    for (int m = 1; m <= x.z; ++m)
-        if (x.w[m]) moves.push_back(m);
-    const std::size_t k = moves.size();
-    const int zt = std::min(L, x.z);
-    for (std::size_t q = 0; q < nq; ++q) {
-        const Job& j = jobs[q];
-        for (int d = 1; d <= zt; ++d) {
-            ld num = std::ldexp(static_cast<ld>(x.fin[d]) / den, j.r * d);
-            for (std::size_t i = 0; i < k && moves[i] < d; ++i)
-                num += std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, j.r * moves[i]) * v[(d - moves[i]) * nq + q];
-            const ld leave = static_cast<ld>(x.den - x.stay[d]) / den;
-            v[d * nq + q] = j.x * num / (j.one_minus + j.x * leave);
+    // The row of the next distance (1 first).
+    const ld* next() {
+        ++d_;
+        ld* out = row(d_);
+        if (d_ <= x_.z)
+            zone_row(out);
+        else
+            free_row(out);
+        return out;
+    }
+
+  private:
+    ld* row(int d) { return &ring_[static_cast<std::size_t>(d % span_) * nq_]; }
+
+    void zone_row(ld* out) {
+        const int d = d_;
+        const ld den = static_cast<ld>(x_.den);
+        for (std::size_t q = 0; q < nq_; ++q) {
+            const Job& j = jobs_[q];
+            if (!finishing_) {
+                out[q] = std::ldexp(j.boundary[d], -j.r * d);
+                continue;
+            }
+            ld num = std::ldexp(static_cast<ld>(x_.fin[d]) / den, j.r * d);
+            for (std::size_t i = 0; i < moves_.size() && moves_[i] < d; ++i)
+                num += std::ldexp(static_cast<ld>(x_.w[moves_[i]]) / den, j.r * moves_[i]) * row(d - moves_[i])[q];
+            const ld leave = static_cast<ld>(x_.den - x_.stay[d]) / den;
+            out[q] = j.x * num / (j.one_minus + j.x * leave);
         }
     }
-    std::vector<ld> a(k * nq);
-    for (std::size_t i = 0; i < k; ++i)
-        for (std::size_t q = 0; q < nq; ++q)
-            a[i * nq + q] = jobs[q].x * std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, jobs[q].r * moves[i]);
-    for (int d = zt + 1; d <= L; ++d) {
-        step(v, a, moves, nq, d);
-    }
-    return v;
-}
 
-// 2^(-r d) sum_e b(e) E[w^tau; enters the zone at e | d] for d = 0..L and
-// each job's boundary b (on distances 1..z): the fast piece's zone-entry
-// time tau at w.
-std::vector<ld> entry_gf(const ExactZone& x, const std::vector<Job>& jobs, int L) {
-    const std::size_t nq = jobs.size();
-    std::vector<ld> v(static_cast<std::size_t>(L + 1) * nq, 0);
-    const ld den = static_cast<ld>(x.den);
-    std::vector<int> moves;
-    for (int m = 1; m <= x.z; ++m)
-        if (x.w[m]) moves.push_back(m);
-    const std::size_t k = moves.size();
-    for (int d = 1; d <= std::min(L, x.z); ++d)
-        for (std::size_t q = 0; q < nq; ++q) v[d * nq + q] = std::ldexp(jobs[q].boundary[d], -jobs[q].r * d);
-    std::vector<ld> a(k * nq);
-    for (std::size_t i = 0; i < k; ++i)
-        for (std::size_t q = 0; q < nq; ++q)
-            a[i * nq + q] = jobs[q].x * std::ldexp(static_cast<ld>(x.w[moves[i]]) / den, -jobs[q].r * moves[i]);
-    for (int d = x.z + 1; d <= L; ++d) {
-        step(v, a, moves, nq, d);
+    // v[d][q] = sum_i a[i][q] v[d - m_i][q], four chains at a time in
+    // registers (the terms in the order of the moves, as one chain alone
+    // would add them).
+    void free_row(ld* out) {
+        const std::size_t k = moves_.size();
+        std::size_t q = 0;
+        for (; q + 4 <= nq_; q += 4) {
+            ld s0 = 0, s1 = 0, s2 = 0, s3 = 0;
+            for (std::size_t i = 0; i < k; ++i) {
+                const ld* src = row(d_ - moves_[i]) + q;
+                const ld* ai = &a_[i * nq_ + q];
+                s0 += ai[0] * src[0];
+                s1 += ai[1] * src[1];
+                s2 += ai[2] * src[2];
+                s3 += ai[3] * src[3];
+            }
+            out[q] = s0;
+            out[q + 1] = s1;
+            out[q + 2] = s2;
+            out[q + 3] = s3;
+        }
+        for (; q < nq_; ++q) {
+            ld s0 = 0;
+            for (std::size_t i = 0; i < k; ++i) s0 += a_[i * nq_ + q] * row(d_ - moves_[i])[q];
+            out[q] = s0;
+        }
     }
-    return v;
-}
+
+    const ExactZone& x_;
+    std::vector<Job> jobs_;
+    bool finishing_;
+    std::size_t nq_;
+    int span_;
+    std::vector<ld> ring_, a_;
+    std::vector<int> moves_;
+    int d_ = 0;
+};
 
 int scale_exponent(ld lambda, double mean_slow, double mean_fast) {
     const double bits = -std::log2(static_cast<double>(lambda));
@@ -222,12 +227,11 @@ int scale_exponent(ld lambda, double mean_slow, double mean_fast) {
 
 bool in_range(ld v) { return std::isfinite(v) && (v == 0 || (std::fabs(v) >= tiny_value && std::fabs(v) <= huge_value)); }
 
-// The first distance from which a scaled value of any job leaves the safe range (L + 1: never).
-int first_out_of_range(const std::vector<ld>& v, std::size_t jobs, int L) {
-    for (int d = 1; d <= L; ++d)
-        for (std::size_t q = 0; q < jobs; ++q)
-            if (!in_range(v[d * jobs + q])) return d;
-    return L + 1;
+// True when every value of a row is in the safe range.
+bool row_in_range(const ld* v, std::size_t n) {
+    for (std::size_t q = 0; q < n; ++q)
+        if (!in_range(v[q])) return false;
+    return true;
 }
 
 }  // namespace
@@ -304,15 +308,19 @@ ZoneTail zone_tail(const Option& a, const Option& b, const ZoneChain& ca, const 
     for (std::size_t ci = cuts.size(); ci-- > 0;) {
         const Cut& cut = cuts[ci];
         const int r = scale_exponent(cut.lambda, mean_s, mean_f);
-        const std::vector<ld> phi = finish_gf(zs, {Job{cut.lambda, cut.one_minus, r, {}}}, L);
-        const std::vector<ld> psi = entry_gf(zf, {Job{cut.inv, 0, r, ones}}, L);
-        const int bad = std::min(first_out_of_range(phi, 1, L), first_out_of_range(psi, 1, L));
-        if (bad <= L) continue;
+        Recursion phi(zs, {Job{cut.lambda, cut.one_minus, r, {}}}, true);
+        Recursion psi(zf, {Job{cut.inv, 0, r, ones}}, false);
         std::vector<ld> eps(L + 1, 0);
+        bool bad = false;
+        for (int d = 1; d <= L && !bad; ++d) {
+            const ld f = *phi.next(), e = *psi.next();
+            bad = !in_range(f) || !in_range(e);
+            eps[d] = cut.factor * f * e * (1 + 4 * gamma_ld(depth(d)));
+        }
+        if (bad) continue;
         int first = L + 1;
         // Lengths inside a zone stay with the series (it needs them).
         for (int d = L; d > std::max(zs.z, zf.z); --d) {
-            eps[d] = cut.factor * phi[d] * psi[d] * (1 + 4 * gamma_ld(depth(d)));
             if (!(eps[d] <= target)) break;
             first = d;
         }
@@ -341,19 +349,19 @@ ZoneTail zone_tail(const Option& a, const Option& b, const ZoneChain& ca, const 
         }
         for (auto& b : bnd) entry_jobs.push_back({m.inv_lambda[j], 0, r, std::move(b)});
     }
-    const std::vector<ld> phi = finish_gf(zs, fin_jobs, L);
-    const std::vector<ld> psi = entry_gf(zf, entry_jobs, L);
-    const int bad = std::min(first_out_of_range(phi, kept, L), first_out_of_range(psi, 3 * kept, L));
+    Recursion phi(zs, std::move(fin_jobs), true);
+    Recursion psi(zf, std::move(entry_jobs), false);
     std::vector<ld> mx(L + 1, 0), me(L + 1, 0), mag(L + 1, 0);
-    for (int d = 1; d <= L; ++d)
+    for (int d = 1; d <= L; ++d) {
+        const ld* f = phi.next();
+        const ld* e = psi.next();
+        if (!row_in_range(f, kept) || !row_in_range(e, 3 * kept)) return out;
         for (std::size_t q = 0; q < kept; ++q) {
-            const ld f = phi[d * kept + q];
-            const ld* e = &psi[(d * kept + q) * 3];
-            mx[d] += f * e[0];
-            me[d] += f * e[1];
-            mag[d] += f * e[2];
+            mx[d] += f[q] * e[3 * q];
+            me[d] += f[q] * e[3 * q + 1];
+            mag[d] += f[q] * e[3 * q + 2];
         }
-    if (bad <= L) return out;
+    }
     out.first = best_first;
     out.modes = static_cast<int>(kept);
     out.cut = static_cast<double>(cuts[best_cut].lambda);
