@@ -268,6 +268,14 @@ ZoneTail zone_tail(const Option& a, const Option& b, const ZoneChain& ca, const 
     if (!m.ok || m.states.empty()) return out;
     const std::size_t n = m.states.size();
     const double mean_s = slow.mean(), mean_f = fast.mean();
+    // Work only: the bound falls roughly like exp(-d m^2 / 2v) (the overlap of
+    // the two finishing times, m and v their mean gap and variance per
+    // square); far from 1e-13 at L, no cut is tried.
+    {
+        const double gap = 1 / mean_s - 1 / mean_f;
+        const double var = dS.variance / (mean_s * mean_s * mean_s) + dF.variance / (mean_f * mean_f * mean_f);
+        if (!(L * gap * gap / (2 * var) >= 20)) return out;
+    }
     // Rounding depth (elementary operations on a path) per distance d: one
     // level per square at most, each a sum of k products, a division and the
     // coefficients' own roundings (docs/method.md, section 4.6).
