@@ -133,6 +133,31 @@ inline void free_terms(const int* mv, const double* mp, int nm, int b, const dou
     yl = (l0 + l1) + (l2 + l3);
 }
 
+// free_terms on four cells b..b+3 side by side, lane by lane in its order
+// (inlined into every clone of the kernels below).
+__attribute__((always_inline)) inline void free_terms4(const int* mv, const double* mp, int nm, int b, const double* vw, const double* vl, v4& yw,
+                        v4& yl) {
+    const int n4 = nm - nm % 4;
+    v4 w0 = {0, 0, 0, 0}, w1 = w0, w2 = w0, w3 = w0, l0 = w0, l1 = w0, l2 = w0, l3 = w0;
+    int i = 0;
+    for (; i < n4; i += 4) {
+        w0 += mp[i] * load(vw + b - mv[i]);
+        l0 += mp[i] * load(vl + b - mv[i]);
+        w1 += mp[i + 1] * load(vw + b - mv[i + 1]);
+        l1 += mp[i + 1] * load(vl + b - mv[i + 1]);
+        w2 += mp[i + 2] * load(vw + b - mv[i + 2]);
+        l2 += mp[i + 2] * load(vl + b - mv[i + 2]);
+        w3 += mp[i + 3] * load(vw + b - mv[i + 3]);
+        l3 += mp[i + 3] * load(vl + b - mv[i + 3]);
+    }
+    for (; i < nm; ++i) {
+        w0 += mp[i] * load(vw + b - mv[i]);
+        l0 += mp[i] * load(vl + b - mv[i]);
+    }
+    yw = (w0 + w1) + (w2 + w3);
+    yl = (l0 + l1) + (l2 + l3);
+}
+
 // The second piece's free moves on a finished row v: for b in [lo, hi),
 // y(b) = sum_i mp[i] v(b - mv[i]) in four partial sums (i mod 4; the last
 // moves into the first), then g(b) = stay(b) v(b) + y(b). Same order as the
@@ -140,26 +165,10 @@ inline void free_terms(const int* mv, const double* mp, int nm, int b, const dou
 ROW_KERNEL void shifted_rows(const double* __restrict vw, const double* __restrict vl, double* __restrict gw,
                              double* __restrict gl, const int* mv, const double* mp, int nm, const double* stay,
                              int lo, int hi) {
-    const int n4 = nm - nm % 4;
     int b = lo;
     for (; b + 4 <= hi; b += 4) {
-        v4 w0 = {0, 0, 0, 0}, w1 = w0, w2 = w0, w3 = w0, l0 = w0, l1 = w0, l2 = w0, l3 = w0;
-        int i = 0;
-        for (; i < n4; i += 4) {
-            w0 += mp[i] * load(vw + b - mv[i]);
-            l0 += mp[i] * load(vl + b - mv[i]);
-            w1 += mp[i + 1] * load(vw + b - mv[i + 1]);
-            l1 += mp[i + 1] * load(vl + b - mv[i + 1]);
-            w2 += mp[i + 2] * load(vw + b - mv[i + 2]);
-            l2 += mp[i + 2] * load(vl + b - mv[i + 2]);
-            w3 += mp[i + 3] * load(vw + b - mv[i + 3]);
-            l3 += mp[i + 3] * load(vl + b - mv[i + 3]);
-        }
-        for (; i < nm; ++i) {
-            w0 += mp[i] * load(vw + b - mv[i]);
-            l0 += mp[i] * load(vl + b - mv[i]);
-        }
-        const v4 yw = (w0 + w1) + (w2 + w3), yl = (l0 + l1) + (l2 + l3);
+        v4 yw, yl;
+        free_terms4(mv, mp, nm, b, vw, vl, yw, yl);
         const v4 s = load(stay + b);
         store(gw + b, s * load(vw + b) + yw);
         store(gl + b, s * load(vl + b) + yl);
@@ -280,27 +289,11 @@ inline void solve_cell(double xw, double xl, double yw, double yl, double sa, do
 ROW_KERNEL void loop_cells(double* vw, double* vl, double* __restrict gw, double* __restrict gl,
                            const double* __restrict xw, const double* __restrict xl, const int* mv, const double* mp,
                            int nm, const double* lb, const double* sb, double sa, double la, int lo, int hi) {
-    const int n4 = nm - nm % 4;
     const v4 zero = {0, 0, 0, 0};
     int b = lo;
     for (; b + 4 <= hi; b += 4) {
-        v4 w0 = zero, w1 = zero, w2 = zero, w3 = zero, l0 = zero, l1 = zero, l2 = zero, l3 = zero;
-        int i = 0;
-        for (; i < n4; i += 4) {
-            w0 += mp[i] * load(vw + b - mv[i]);
-            l0 += mp[i] * load(vl + b - mv[i]);
-            w1 += mp[i + 1] * load(vw + b - mv[i + 1]);
-            l1 += mp[i + 1] * load(vl + b - mv[i + 1]);
-            w2 += mp[i + 2] * load(vw + b - mv[i + 2]);
-            l2 += mp[i + 2] * load(vl + b - mv[i + 2]);
-            w3 += mp[i + 3] * load(vw + b - mv[i + 3]);
-            l3 += mp[i + 3] * load(vl + b - mv[i + 3]);
-        }
-        for (; i < nm; ++i) {
-            w0 += mp[i] * load(vw + b - mv[i]);
-            l0 += mp[i] * load(vl + b - mv[i]);
-        }
-        const v4 yw = (w0 + w1) + (w2 + w3), yl = (l0 + l1) + (l2 + l3);
+        v4 yw, yl;
+        free_terms4(mv, mp, nm, b, vw, vl, yw, yl);
         const v4 den = la + sa * load(lb + b);
         const v4 w = den > zero ? (load(xw + b) + sa * yw) / den : zero;
         const v4 l = den > zero ? (load(xl + b) + sa * yl) / den : zero;
@@ -370,10 +363,14 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
     std::vector<double>&yw_row = ws.yw, &yl_row = ws.yl;
     yw_row.assign(stride + 8, 0.0);
     yl_row.assign(stride + 8, 0.0);
-    // Y on the second piece's zone cells of a finished V row.
-    auto zone_y = [&](const double* v_w, const double* v_l, int hi) {
+    // G on the second piece's zone cells 1..hi of a finished V row, Y by zone_moves.
+    auto zone_g = [&](const double* v_w, const double* v_l, int hi, double* rw, double* rl) {
         zone_moves(v_w, v_l, yw_row.data(), yl_row.data(), B.moves.data(), B.move_p.data(), nb, ws.fin.data(), 1,
                    hi + 1);
+        for (int b = 1; b <= hi; ++b) {
+            rw[b] = B.stay[b] * v_w[b] + yw_row[b];
+            rl[b] = B.stay[b] * v_l[b] + yl_row[b];
+        }
     };
     if (strip) {
         if (za != A.zone || zs != B.zone || A.p_zero != 0.0 || B.p_zero != 0.0 || na == 0 || nb == 0)
@@ -394,11 +391,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
         double* rw = gw.data() + static_cast<std::size_t>(a % ring) * stride;
         double* rl = gl.data() + static_cast<std::size_t>(a % ring) * stride;
         if (zone_vec) {
-            zone_y(v_w, v_l, zb);
-            for (int b = 1; b <= zb; ++b) {
-                rw[b] = B.stay[b] * v_w[b] + yw_row[b];
-                rl[b] = B.stay[b] * v_l[b] + yl_row[b];
-            }
+            zone_g(v_w, v_l, zb, rw, rl);
         } else {
             for (int b = 1; b <= zb; ++b) {
                 double yw, yl;
@@ -449,11 +442,7 @@ RowCounts diagonal_rows(const DistanceModel& A, const DistanceModel& B, bool a_f
                 vw[b] = x_w[b] / la;
                 vl[b] = x_l[b] / la;
             }
-            zone_y(vw, vl, zr);
-            for (int b = 1; b <= zr; ++b) {
-                rw[b] = B.stay[b] * vw[b] + yw_row[b];
-                rl[b] = B.stay[b] * vl[b] + yl_row[b];
-            }
+            zone_g(vw, vl, zr, rw, rl);
         } else {
             for (int b = 1; b <= zr; ++b) {
                 double yw, yl;
