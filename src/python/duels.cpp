@@ -11,6 +11,7 @@
 #include "python/common.hpp"
 #include "race/duel.hpp"
 #include "race/exact.hpp"
+#include "race/long_duel.hpp"
 #include "render/exact.hpp"
 #include "render/duel.hpp"
 #include "render/profile.hpp"
@@ -186,10 +187,12 @@ asked for with exact=True, else None.)doc")
             DuelSettings ds;
             ds.method = parse_duel_method(method);
             py::gil_scoped_release unlocked;
-            Chain ca = build_chain(d->setup.board, d->setup.options[0]);
-            Chain cb = build_chain(d->setup.board, d->setup.options[1]);
-            d->result = duel(ca, cb, d->setup.order, ds);
-            if (exact) d->exact = exact_duel(ca, cb, d->setup.order);
+            // As `overshoot duel`: long boards need no chain when the finishing windows lie apart.
+            const Board& bd = d->setup.board;
+            d->result = duel_on_board(bd, d->setup.options[0], d->setup.options[1], 0, 0, d->setup.order, ds);
+            if (exact)
+                d->exact = exact_duel(build_chain(bd, d->setup.options[0]), build_chain(bd, d->setup.options[1]),
+                                      d->setup.order);
             return d;
         },
         py::arg("a"), py::arg("b"), py::kw_only(), py::arg("exact") = false, py::arg("method") = "auto",

@@ -28,6 +28,7 @@ def test_readme_line():
     (("2d6", "3d6"), dict(length=60, overshoot="bounce", order="a-first")),
     (("1d6", "[1,2,6]"), dict(length=40, jumps=["5:20", (30, 3)], order="coin")),
     (("steady", "bold"), dict(scenario=data("garden-path.toml"))),
+    (("1d6", "2d6"), dict(length=100000)),  # the separated method, no chain built
 ])
 def test_duel_matches_cli(args, flags):
     r = overshoot.duel(*args, **flags)
