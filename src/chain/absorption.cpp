@@ -41,8 +41,18 @@ StartAbsorption absorption_from(const Board& board, const Option& o, int start) 
     std::vector<long double> h(size), q(size);
     std::vector<double> g(size), uh(size), uq(size);
     std::vector<char> can(size);
-    int moves = 0;
-    for (int m = 0; m <= o.max_move(); ++m) moves += o.weight[m] != 0 ? 1 : 0;
+    // The moves with non-zero weight, their weights converted once.
+    struct Move {
+        int m;
+        std::uint64_t w;
+        long double wl;
+        double wd;
+    };
+    std::vector<Move> list;
+    for (int m = 0; m <= o.max_move(); ++m)
+        if (o.weight[m] != 0)
+            list.push_back({m, o.weight[m], static_cast<long double>(o.weight[m]), static_cast<double>(o.weight[m])});
+    const int moves = static_cast<int>(list.size());
     const long double den = static_cast<long double>(o.denominator);
     for (int s = n - 1; s >= start; --s) {
         const std::size_t i = static_cast<std::size_t>(s - start);
@@ -51,13 +61,11 @@ StartAbsorption absorption_from(const Board& board, const Option& o, int start) 
         double gs = 0, uhs = 0, uqs = 0;
         bool reach = false;
         const bool inside = s + o.max_move() < n;  // no move overshoots: only jumps to follow
-        for (int m = 0; m <= o.max_move(); ++m) {
-            const std::uint64_t w = o.weight[m];
-            if (w == 0) continue;
-            const int d = inside ? board.after_jumps[s + m] : move_destination(board, s, m);
-            const long double wl = static_cast<long double>(w);
+        for (const Move& mv : list) {
+            const int d = inside ? board.after_jumps[s + mv.m] : move_destination(board, s, mv.m);
+            const long double wl = mv.wl;
             if (d == s) {
-                stay += w;
+                stay += mv.w;
             } else if (d == n) {
                 hs += wl;
                 reach = true;
@@ -65,7 +73,7 @@ StartAbsorption absorption_from(const Board& board, const Option& o, int start) 
                 const std::size_t j = static_cast<std::size_t>(d - start);
                 if (can[j]) {
                     reach = true;
-                    const double wd = static_cast<double>(w);
+                    const double wd = mv.wd;
                     hs += wl * h[j];
                     qs += wl * q[j];
                     gs += wd * g[j];
