@@ -1,4 +1,6 @@
 // Tests of src/sweep: crossovers, cycle intervals and sweeps with jumps, across lengths.
+#include <fmt/format.h>
+
 #include <catch2/catch.hpp>
 #include <cmath>
 #include <cstdio>
@@ -213,4 +215,41 @@ TEST_CASE("stretches: who is preferred over which lengths, with the smallest and
     CHECK(b.bound > 4e-12);
     CHECK(b.length == 12);
     CHECK(render::sweep_bound_note(r).find("at length 12") != std::string::npos);
+}
+
+TEST_CASE("a zone-tail pair says where the series hands over, and keeps the series' verdicts", "[sweep]") {
+    // 1d6 against 3d6 on 1..1500 (stay, simultaneous): the series gives the
+    // short lengths, the zone tail the long ones (docs/sweep.md, "Zone tail").
+    SweepSpec spec;
+    spec.options = opts({"1d6", "3d6"});
+    spec.grid = parse_lengths("1..1500", 1);
+    SweepResult r = run_sweep(spec);
+    const PairSweep& p = r.variants[0].pairs[0];
+    REQUIRE(p.method == LengthMethod::zone_tail);
+    REQUIRE(p.tail_from > 7);
+    REQUIRE(p.tail_from < 200);
+    const std::string text = render::sweep_text(r);
+    REQUIRE(text.find(fmt::format("1d6 vs 3d6: series to {}, zone tail from {}", p.tail_from - 1, p.tail_from)) !=
+            std::string::npos);
+    const auto j = render::sweep_json(r);
+    REQUIRE(j["variants"][0]["methods"][0]["method"] == "zone-tail");
+    REQUIRE(j["variants"][0]["methods"][0]["zone_tail_from"] == p.tail_from);
+    // The CSV names the method of each row.
+    const std::string csv = render::sweep_csv(r);
+    REQUIRE(csv.find(fmt::format(",{},1d6,3d6,", p.tail_from - 1)) != std::string::npos);
+    const auto row = [&](int len) {
+        const auto at = csv.find(fmt::format("simultaneous,{},1d6,3d6,", len));
+        return csv.substr(at, csv.find('\n', at) - at);
+    };
+    REQUIRE(row(p.tail_from - 1).substr(row(p.tail_from - 1).rfind(',') + 1) == "series");
+    REQUIRE(row(p.tail_from).substr(row(p.tail_from).rfind(',') + 1) == "zone-tail");
+    // The series alone: the same single crossover (the series gives it at 1279).
+    SweepSpec old = spec;
+    old.engine.method = LengthMethod::series;
+    SweepResult s = run_sweep(old);
+    REQUIRE(s.variants[0].pairs[0].method == LengthMethod::series);
+    REQUIRE(r.variants[0].crossovers.size() == 1);
+    REQUIRE(s.variants[0].crossovers.size() == 1);
+    REQUIRE(r.variants[0].crossovers[0].after == 1279);
+    REQUIRE(s.variants[0].crossovers[0].after == 1279);
 }
