@@ -191,3 +191,23 @@ TEST_CASE("zone method jumped by the free walk agrees with the whole pair progra
         }
     }
 }
+
+TEST_CASE("zone method jumped by the free walk: the exact fractions lie inside its bound", "[race][long-duel]") {
+    // 1d4 against 1d6 on 520 squares: both walks jump (to turns 158 and 105),
+    // the windows overlap (neither is separated). Exact fractions by the GMP pair
+    // programme (race/exact*), a different method.
+    const Board board = make_board(520, Overshoot::stay, {{515, 517}});
+    const Chain ca = build_chain(board, parse_option("1d4")), cb = build_chain(board, parse_option("1d6"));
+    for (Order order : {Order::simultaneous, Order::coin}) {
+        CAPTURE(to_string(order));
+        DuelSettings zs;
+        zs.method = DuelMethod::zone;
+        const DuelResult z = duel(ca, cb, order, zs);
+        const ExactDuel e = exact_duel(ca, cb, order);
+        CHECK(std::fabs(z.p_a_wins - static_cast<long double>(e.p_a_wins.get_d())) <= z.bound + 1e-16L);
+        CHECK(std::fabs(z.p_b_wins - static_cast<long double>(e.p_b_wins.get_d())) <= z.bound + 1e-16L);
+        CHECK(std::fabs(z.p_tie - static_cast<long double>(e.p_tie.get_d())) <= z.bound + 1e-16L);
+        CHECK(std::fabs(z.p_neither - static_cast<long double>(e.p_neither.get_d())) <= z.bound + 1e-16L);
+        CHECK(z.bound < 1e-13L);
+    }
+}
