@@ -227,12 +227,6 @@ int scale_exponent(ld lambda, double mean_slow, double mean_fast) {
 
 bool in_range(ld v) { return std::isfinite(v) && (v == 0 || (std::fabs(v) >= tiny_value && std::fabs(v) <= huge_value)); }
 
-// True when every value of a row is in the safe range.
-bool row_in_range(const ld* v, std::size_t n) {
-    for (std::size_t q = 0; q < n; ++q)
-        if (!in_range(v[q])) return false;
-    return true;
-}
 
 }  // namespace
 
@@ -310,65 +304,84 @@ ZoneTail zone_tail(const Option& a, const Option& b, const ZoneChain& ca, const 
     int best_first = L + 1;
     std::size_t best_cut = 0;
     std::vector<ld> best_eps;
-    // From the smallest cut up (the most terms, usually the most lengths);
-    // once a cut covers clearly fewer lengths than the best, larger ones will
-    // not do better (a choice of work only: every cut's bound is proven).
-    for (std::size_t ci = cuts.size(); ci-- > 0;) {
-        const Cut& cut = cuts[ci];
-        const int r = scale_exponent(cut.lambda, mean_s, mean_f);
-        Recursion phi(zs, {Job{cut.lambda, cut.one_minus, r, {}}}, true);
-        Recursion psi(zf, {Job{cut.inv, 0, r, ones}}, false);
-        std::vector<ld> eps(L + 1, 0);
-        bool bad = false;
-        for (int d = 1; d <= L && !bad; ++d) {
-            const ld f = *phi.next(), e = *psi.next();
-            bad = !in_range(f) || !in_range(e);
-            eps[d] = cut.factor * f * e * (1 + 4 * gamma_ld(depth(d)));
+    // Among the cuts below `limit` (index into cuts, largest stay first): from
+    // the smallest cut up (the most terms, usually the most lengths); once a
+    // cut covers clearly fewer lengths than the best, larger ones will not do
+    // better (a choice of work only: every cut's bound is proven).
+    auto choose = [&](std::size_t limit) {
+        best_first = L + 1;
+        for (std::size_t ci = limit; ci-- > 0;) {
+            const Cut& cut = cuts[ci];
+            const int r = scale_exponent(cut.lambda, mean_s, mean_f);
+            Recursion phi(zs, {Job{cut.lambda, cut.one_minus, r, {}}}, true);
+            Recursion psi(zf, {Job{cut.inv, 0, r, ones}}, false);
+            std::vector<ld> eps(L + 1, 0);
+            bool bad = false;
+            for (int d = 1; d <= L && !bad; ++d) {
+                const ld f = *phi.next(), e = *psi.next();
+                bad = !in_range(f) || !in_range(e);
+                eps[d] = cut.factor * f * e * (1 + 4 * gamma_ld(depth(d)));
+            }
+            if (bad) continue;
+            int first = L + 1;
+            // Lengths inside a zone stay with the series (it needs them).
+            for (int d = L; d > std::max(zs.z, zf.z); --d) {
+                if (!(eps[d] <= target)) break;
+                first = d;
+            }
+            if (first < best_first) {
+                best_first = first;
+                best_cut = ci;
+                best_eps = std::move(eps);
+            } else if (best_first <= L && first > best_first + best_first / 2) {
+                break;
+            }
         }
-        if (bad) continue;
-        int first = L + 1;
-        // Lengths inside a zone stay with the series (it needs them).
-        for (int d = L; d > std::max(zs.z, zf.z); --d) {
-            if (!(eps[d] <= target)) break;
-            first = d;
-        }
-        if (first < best_first) {
-            best_first = first;
-            best_cut = ci;
-            best_eps = std::move(eps);
-        } else if (best_first <= L && first > best_first + best_first / 2) {
-            break;
-        }
-    }
-    if (best_first > L) return out;
-    // The kept terms: every stay probability at or above the cut.
-    const std::size_t kept = cuts[best_cut].kept;
-    std::vector<Job> fin_jobs, entry_jobs;
-    for (std::size_t oi = 0; oi < kept; ++oi) {
-        const std::size_t j = order[oi];
-        const int r = scale_exponent(m.lambda[j], mean_s, mean_f);
-        fin_jobs.push_back({m.lambda[j], m.one_minus[j], r, {}});
-        std::vector<std::vector<ld>> bnd(3, std::vector<ld>(zf.z + 1, 0));
-        for (std::size_t i = 0; i < n; ++i) {
-            const int e = m.states[i];
-            bnd[0][e] = m.c[i][j];
-            bnd[1][e] = m.cp[i][j] / m.lambda[j];
-            bnd[2][e] = std::fabs(m.c[i][j]) + std::fabs(m.cp[i][j]) / m.lambda[j];
-        }
-        for (auto& b : bnd) entry_jobs.push_back({m.inv_lambda[j], 0, r, std::move(b)});
-    }
-    Recursion phi(zs, std::move(fin_jobs), true);
-    Recursion psi(zf, std::move(entry_jobs), false);
+    };
+    // The kept terms (every stay probability at or above the cut); when one
+    // of them leaves the safe range, only cuts above it are tried again.
     std::vector<ld> mx(L + 1, 0), me(L + 1, 0), mag(L + 1, 0);
-    for (int d = 1; d <= L; ++d) {
-        const ld* f = phi.next();
-        const ld* e = psi.next();
-        if (!row_in_range(f, kept) || !row_in_range(e, 3 * kept)) return out;
-        for (std::size_t q = 0; q < kept; ++q) {
-            mx[d] += f[q] * e[3 * q];
-            me[d] += f[q] * e[3 * q + 1];
-            mag[d] += f[q] * e[3 * q + 2];
+    std::size_t limit = cuts.size(), kept = 0;
+    while (true) {
+        choose(limit);
+        if (best_first > L) return out;
+        kept = cuts[best_cut].kept;
+        std::vector<Job> fin_jobs, entry_jobs;
+        for (std::size_t oi = 0; oi < kept; ++oi) {
+            const std::size_t j = order[oi];
+            const int r = scale_exponent(m.lambda[j], mean_s, mean_f);
+            fin_jobs.push_back({m.lambda[j], m.one_minus[j], r, {}});
+            std::vector<std::vector<ld>> bnd(3, std::vector<ld>(zf.z + 1, 0));
+            for (std::size_t i = 0; i < n; ++i) {
+                const int e = m.states[i];
+                bnd[0][e] = m.c[i][j];
+                bnd[1][e] = m.cp[i][j] / m.lambda[j];
+                bnd[2][e] = std::fabs(m.c[i][j]) + std::fabs(m.cp[i][j]) / m.lambda[j];
+            }
+            for (auto& bv : bnd) entry_jobs.push_back({m.inv_lambda[j], 0, r, std::move(bv)});
         }
+        Recursion phi(zs, std::move(fin_jobs), true);
+        Recursion psi(zf, std::move(entry_jobs), false);
+        std::fill(mx.begin(), mx.end(), 0);
+        std::fill(me.begin(), me.end(), 0);
+        std::fill(mag.begin(), mag.end(), 0);
+        std::size_t bad_term = kept;  // the first kept term out of range, if any
+        for (int d = 1; d <= L && bad_term == kept; ++d) {
+            const ld* f = phi.next();
+            const ld* e = psi.next();
+            for (std::size_t q = 0; q < kept; ++q) {
+                if (!in_range(f[q]) || !in_range(e[3 * q]) || !in_range(e[3 * q + 1]) || !in_range(e[3 * q + 2])) {
+                    bad_term = q;
+                    break;
+                }
+                mx[d] += f[q] * e[3 * q];
+                me[d] += f[q] * e[3 * q + 1];
+                mag[d] += f[q] * e[3 * q + 2];
+            }
+        }
+        if (bad_term == kept) break;
+        limit = bad_term;  // cut index i keeps terms 0..i: only cuts below the bad term avoid it
+        if (limit == 0) return out;
     }
     out.first = best_first;
     out.modes = static_cast<int>(kept);
