@@ -25,19 +25,14 @@
 #include "tournament/tournament.hpp"
 
 #include "support.hpp"
+#include "support_lengths.hpp"
 
 using namespace overshoot;
 
 namespace {
 
 using testing::opts;
-
-std::vector<PairRequest> all_pairs(std::size_t n) {
-    std::vector<PairRequest> r;
-    for (std::size_t i = 0; i < n; ++i)
-        for (std::size_t j = i + 1; j < n; ++j) r.push_back({i, j});
-    return r;
-}
+using testing::every_pair;
 
 // |sweep figure - duel figure| must be within the sum of both proven bounds.
 void require_agrees(const LengthOutcome& o, const DuelResult& r, const std::string& what) {
@@ -76,7 +71,7 @@ TEST_CASE("every per-length figure equals the single-board duel on random jump-f
             LengthSettings s;
             s.method = m;
             s.threads = 1;
-            auto res = all_lengths(o, rule, order, L, all_pairs(2), s);
+            auto res = all_lengths(o, rule, order, L, every_pair(2), s);
             REQUIRE(res.size() == 1);
             REQUIRE(res[0].done);
             for (int len : {1, 2, 3, 7, L / 3, L - 1, L}) {
@@ -98,7 +93,7 @@ TEST_CASE("heavy options: the series closes stuck and lingering pieces exactly",
     auto o = opts({"2d6", "3d6", "5d12"});
     LengthSettings s;
     s.threads = 2;
-    auto res = all_lengths(o, Overshoot::stay, Order::simultaneous, 90, all_pairs(3), s);
+    auto res = all_lengths(o, Overshoot::stay, Order::simultaneous, 90, every_pair(3), s);
     for (const auto& p : res) {
         REQUIRE(p.done);
         for (int len : {1, 3, 5, 6, 40, 90}) {
@@ -117,8 +112,8 @@ TEST_CASE("the engine gives the same bits whatever the thread count", "[lengths]
     LengthSettings one, two;
     one.threads = 1;
     two.threads = 2;
-    auto a = all_lengths(o, Overshoot::stay, Order::coin, 300, all_pairs(5), one);
-    auto b = all_lengths(o, Overshoot::stay, Order::coin, 300, all_pairs(5), two);
+    auto a = all_lengths(o, Overshoot::stay, Order::coin, 300, every_pair(5), one);
+    auto b = all_lengths(o, Overshoot::stay, Order::coin, 300, every_pair(5), two);
     REQUIRE(a.size() == b.size());
     for (std::size_t k = 0; k < a.size(); ++k) {
         REQUIRE(a[k].method == b[k].method);
@@ -148,8 +143,8 @@ TEST_CASE("the row form gives the bits of the cell-by-cell programme", "[lengths
                 cells.method = LengthMethod::pairs_scalar;
                 rows.threads = cells.threads = 2;
                 const int L = 260;
-                auto a = all_lengths(o, rule, order, L, all_pairs(o.size()), rows);
-                auto b = all_lengths(o, rule, order, L, all_pairs(o.size()), cells);
+                auto a = all_lengths(o, rule, order, L, every_pair(o.size()), rows);
+                auto b = all_lengths(o, rule, order, L, every_pair(o.size()), cells);
                 REQUIRE(a.size() == b.size());
                 for (std::size_t k = 0; k < a.size(); ++k)
                     for (int d = 1; d <= L; ++d) {
@@ -172,7 +167,7 @@ TEST_CASE("the row form on heavy pairs holds the exact duel inside its bound", "
         s.method = LengthMethod::pairs;
         s.threads = 1;
         const int L = 24;
-        auto res = all_lengths(o, Overshoot::stay, Order::simultaneous, L, all_pairs(2), s);
+        auto res = all_lengths(o, Overshoot::stay, Order::simultaneous, L, every_pair(2), s);
         for (int len : {1, 5, 12, 23, 24}) {
             Board board = make_board(len, Overshoot::stay, {});
             ExactDuel e = exact_duel(build_chain(board, o[0]), build_chain(board, o[1]), Order::simultaneous);

@@ -11,30 +11,22 @@
 #include "core/option.hpp"
 #include "lengths/lengths.hpp"
 #include "race/exact.hpp"
+#include "support.hpp"
+#include "support_lengths.hpp"
 
 using namespace overshoot;
 
 namespace {
 
-std::vector<PairRequest> every_pair(std::size_t n) {
-    std::vector<PairRequest> r;
-    for (std::size_t i = 0; i < n; ++i)
-        for (std::size_t j = i + 1; j < n; ++j) r.push_back({i, j});
-    return r;
-}
-
-std::vector<PairLengths> run(const std::vector<Option>& o, Overshoot rule, Order order, int L, LengthMethod m) {
-    LengthSettings s;
-    s.method = m;
-    s.threads = 2;
-    return all_lengths(o, rule, order, L, every_pair(o.size()), s);
-}
+using testing::every_pair;
+using testing::opts;
+using testing::run_lengths;
 
 // Closure and whole programme agree within the sum of their bounds, and the
 // closure's bound is at most twice the programme's.
 void require_agree(const std::vector<Option>& o, Overshoot rule, Order order, int L) {
-    auto closure = run(o, rule, order, L, LengthMethod::closure);
-    auto whole = run(o, rule, order, L, LengthMethod::pairs);
+    auto closure = run_lengths(o, rule, order, L, LengthMethod::closure);
+    auto whole = run_lengths(o, rule, order, L, LengthMethod::pairs);
     REQUIRE(closure.size() == whole.size());
     for (std::size_t k = 0; k < closure.size(); ++k) {
         REQUIRE(closure[k].method == LengthMethod::closure);
@@ -43,20 +35,10 @@ void require_agree(const std::vector<Option>& o, Overshoot rule, Order order, in
             const LengthOutcome& x = closure[k].by_length[d];
             const LengthOutcome& y = whole[k].by_length[d];
             INFO(o[closure[k].a].name << " vs " << o[closure[k].b].name << " at " << d);
-            const double allowed = x.bound + y.bound;
-            REQUIRE(std::fabs(x.p_a_wins - y.p_a_wins) <= allowed);
-            REQUIRE(std::fabs(x.p_b_wins - y.p_b_wins) <= allowed);
-            REQUIRE(std::fabs(x.p_tie - y.p_tie) <= allowed);
-            REQUIRE(x.p_neither == y.p_neither);
+            testing::require_within_bounds(x, y);
             REQUIRE(x.bound <= 2 * y.bound);
         }
     }
-}
-
-std::vector<Option> options(std::initializer_list<const char*> names) {
-    std::vector<Option> o;
-    for (const char* n : names) o.push_back(parse_option(n));
-    return o;
 }
 
 }  // namespace
@@ -65,14 +47,14 @@ TEST_CASE("the closure agrees with the whole programme on heavy pairs over lengt
     // Every pair of 5d12, 4d10, 3d20 and 6d20: the faster piece enters its zone
     // first from either seat, and 4d10 against 3d20 are close in speed (both
     // bands of the closure are read).
-    require_agree(options({"5d12", "4d10", "3d20", "6d20"}), Overshoot::stay, Order::simultaneous, 2000);
+    require_agree(opts({"5d12", "4d10", "3d20", "6d20"}), Overshoot::stay, Order::simultaneous, 2000);
 }
 
 TEST_CASE("the closure agrees with the whole programme on pairs far apart in speed over 1..2000", "[lengths][closure]") {
     // K is built eight offset rows at a time and its first and last rows that
     // survive the trimming set the strip's extent: pieces of very different
     // speeds leave many empty rows at both ends of K, and light ones many rounds.
-    require_agree(options({"2d4", "6d20", "1d20", "5d4"}), Overshoot::stay, Order::simultaneous, 2000);
+    require_agree(opts({"2d4", "6d20", "1d20", "5d4"}), Overshoot::stay, Order::simultaneous, 2000);
 }
 
 TEST_CASE("the closure agrees with the whole programme for every order and both rules", "[lengths][closure]") {
@@ -81,7 +63,7 @@ TEST_CASE("the closure agrees with the whole programme for every order and both 
             INFO("rule " << static_cast<int>(rule) << " order " << static_cast<int>(order));
             // Slow and light pieces too: many rounds of convolution powers,
             // custom dice, a constant added, zones of different widths.
-            require_agree(options({"6d20", "2d4", "[1,3,8]", "1d6+2", "3d6"}), rule, order, 400);
+            require_agree(opts({"6d20", "2d4", "[1,3,8]", "1d6+2", "3d6"}), rule, order, 400);
         }
 }
 
@@ -93,27 +75,18 @@ TEST_CASE("the closure holds the exact duel inside its bound beyond the end zone
         for (const char* n : names) o.push_back(parse_option(n));
         const int L = 44;
         for (Order order : {Order::simultaneous, Order::a_first}) {
-            auto res = run(o, Overshoot::stay, order, L, LengthMethod::closure);
+            auto res = run_lengths(o, Overshoot::stay, order, L, LengthMethod::closure);
             REQUIRE(res[0].method == LengthMethod::closure);
-            for (int len : {5, 19, 25, 37, 44}) {
-                Board board = make_board(len, Overshoot::stay, {});
-                ExactDuel e = exact_duel(build_chain(board, o[0]), build_chain(board, o[1]), order);
-                const LengthOutcome& x = res[0].by_length[len];
-                INFO(names[0] << " vs " << names[1] << " at " << len);
-                const mpq_class bound(x.bound);
-                REQUIRE(abs(mpq_class(x.p_a_wins) - e.p_a_wins) <= bound);
-                REQUIRE(abs(mpq_class(x.p_b_wins) - e.p_b_wins) <= bound);
-                if (order == Order::simultaneous) REQUIRE(abs(mpq_class(x.p_tie) - e.p_tie) <= bound);
-            }
+            testing::require_exact_inside(o, order, res[0], {5, 19, 25, 37, 44});
         }
     }
 }
 
 TEST_CASE("auto takes the closure for fast heavy pairs and the whole programme for slow ones", "[lengths][closure]") {
-    auto fast = run(options({"6d20", "5d12"}), Overshoot::stay, Order::simultaneous, 2000, LengthMethod::automatic);
+    auto fast = run_lengths(opts({"6d20", "5d12"}), Overshoot::stay, Order::simultaneous, 2000, LengthMethod::automatic);
     REQUIRE(fast[0].method == LengthMethod::closure);
     // A move of 0 leaves the free walk with a stay: the closure does not apply.
-    auto idle = run(options({"[0,5,9]", "5d12"}), Overshoot::stay, Order::simultaneous, 300, LengthMethod::closure);
+    auto idle = run_lengths(opts({"[0,5,9]", "5d12"}), Overshoot::stay, Order::simultaneous, 300, LengthMethod::closure);
     REQUIRE(idle[0].method == LengthMethod::pairs);
     REQUIRE(parse_length_method("closure") == LengthMethod::closure);
     REQUIRE(to_string(LengthMethod::closure) == "closure");
@@ -122,7 +95,7 @@ TEST_CASE("auto takes the closure for fast heavy pairs and the whole programme f
 TEST_CASE("the closure gives the same bits on one thread and on two", "[lengths][closure]") {
     // A lone pair shares the building of K and the band sums between the
     // threads; each block of offsets sums on its own and blocks add in order.
-    const auto o = options({"6d20", "5d12"});
+    const auto o = opts({"6d20", "5d12"});
     for (Order order : {Order::simultaneous, Order::coin}) {
         LengthSettings one, two;
         one.method = two.method = LengthMethod::closure;

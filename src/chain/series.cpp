@@ -28,19 +28,13 @@ long double gamma_of(double n) {
     else
         return gamma_ld(n);
 }
+// The chain keeps each table of probabilities in both precisions.
 template <class Real>
-const Real* probabilities(const Chain& c) {
+const Real* in_precision(const std::vector<double>& d, const std::vector<long double>& l) {
     if constexpr (std::is_same_v<Real, double>)
-        return c.prob_d.data();
+        return d.data();
     else
-        return c.prob.data();
-}
-template <class Real>
-const Real* move_probabilities(const Chain& c) {
-    if constexpr (std::is_same_v<Real, double>)
-        return c.move_prob_d.data();
-    else
-        return c.move_prob.data();
+        return l.data();
 }
 // dst[i] += p * src[i]: vectorised for double; long double has no vector unit.
 inline void add_scaled(double* dst, const double* src, double p, int n) { axpy(dst, src, p, n); }
@@ -98,7 +92,7 @@ template <class Real>
 long double BasicSeries<Real>::step() {
     const Chain& c = *c_;
     const int n = c.length;
-    const Real* prob = probabilities<Real>(c);
+    const Real* prob = in_precision<Real>(c.prob_d, c.prob);
     ++t_;
     if (alive_ == 0) return 0;
     int nlo = n, nhi = -1;
@@ -108,7 +102,7 @@ long double BasicSeries<Real>::step() {
     int from = lo_;
     const int plain_hi = std::min(hi_, c.plain_end - 1);
     if (lo_ <= plain_hi) {
-        const Real* mp = move_probabilities<Real>(c);
+        const Real* mp = in_precision<Real>(c.move_prob_d, c.move_prob);
         const int width = plain_hi - lo_ + 1;
         for (int s = lo_; s <= plain_hi; ++s) processed += v_[s];
         for (int m = 0; m <= c.max_move; ++m) {
