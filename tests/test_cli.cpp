@@ -790,6 +790,13 @@ TEST_CASE("cli: certify says where the certificate went; check speaks in its own
     CHECK(c.err_lines() == 1);
     CHECK_THAT(c.err, Catch::Contains("certificate written to " + f.string() + ": 1d6 beats 2d6") &&
                           Catch::Contains("overshoot check " + f.string()));
+    // The Markdown form is for reading: the line does not offer it to check.
+    const fs::path md = scratch() / "said.md";
+    Run m = run({"certify", "winner", "1d6", "2d6", "--length", "10", "--format", "md", "-o", md.string()});
+    REQUIRE(m.status == 0);
+    CHECK(m.err_lines() == 1);
+    CHECK_THAT(m.err, Catch::Contains("certificate written to " + md.string()) &&
+                          Catch::Contains("re-checks the JSON form") && !Catch::Contains("overshoot check " + md.string()));
     Run k = run({"check", f.string()});
     REQUIRE(k.status == 0);
     std::istringstream lines(k.out);

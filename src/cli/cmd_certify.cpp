@@ -56,7 +56,7 @@ void run(const CertifyArgs& a) {
     deliver(a.out, text);
     // Written to a file, the certificate is out of sight: say so in one line (stdout stays empty).
     if (a.out.output && *a.out.output != "-")
-        std::fprintf(stderr, "overshoot: %s\n", render::certificate_written(cert, *a.out.output).c_str());
+        std::fprintf(stderr, "overshoot: %s\n", render::certificate_written(cert, *a.out.output, format == "json").c_str());
 }
 
 void add_kind(CLI::App& parent, const char* name, const char* help, ClaimKind kind) {

@@ -207,7 +207,11 @@ std::string check_text(const Certificate& c, const CheckReport& r) {
     return out;
 }
 
-std::string certificate_written(const Certificate& c, const std::string& path) {
+std::string certificate_written(const Certificate& c, const std::string& path, bool json) {
+    if (!json)
+        return fmt::format("certificate written to {}: {}. This form is for reading; `overshoot check` re-checks "
+                           "the JSON form (--format json)",
+                           path, c.statement);
     return fmt::format("certificate written to {}: {}. Re-check it with: overshoot check {}", path, c.statement, path);
 }
 

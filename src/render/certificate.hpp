@@ -13,7 +13,8 @@ std::string certificate_markdown(const Certificate& c);
 std::string certificate_latex(const Certificate& c);
 
 // The one line certify says on success when the certificate went to a file.
-std::string certificate_written(const Certificate& c, const std::string& path);
+// `json`: the file is the checkable JSON form (the line then says how to re-check it).
+std::string certificate_written(const Certificate& c, const std::string& path, bool json);
 
 std::string check_text(const Certificate& c, const CheckReport& r);
 nlohmann::json check_json(const Certificate& c, const CheckReport& r);
