@@ -154,6 +154,7 @@ class Recursion {
     // The row of the next distance (1 first).
     const ld* next() {
         ++d_;
+        if (nq_ == 0) return nullptr;  // no term kept: nothing to read
         ld* out = row(d_);
         if (d_ <= x_.z)
             zone_row(out);
