@@ -35,7 +35,9 @@ BINARY, MPIEXEC = sys.argv[1], sys.argv[2]
 ENV = dict(os.environ, OMPI_ALLOW_RUN_AS_ROOT="1", OMPI_ALLOW_RUN_AS_ROOT_CONFIRM="1",
            OMPI_MCA_rmaps_base_oversubscribe="1")
 SHORT = ["hunt", "dice(count=1..3, sides=4,6,8)", "--lengths", "10..180", "--overshoot", "stay,bounce,pass", "--threads", "1"]
-LONG = ["hunt", "dice(count=1..5, sides=4,6,8,10)", "--lengths", "10..1800", "--threads", "1", "--json"]
+# Long enough that rank 1 saves a checkpoint (every 2 s) well before it ends:
+# about 7 s of CPU in one process, so each of two ranks runs past 3 s.
+LONG = ["hunt", "dice(count=1..6, sides=4,6,8,10,12,20)", "--lengths", "10..2000", "--threads", "1", "--json"]
 
 
 def fail(msg):
