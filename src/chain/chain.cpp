@@ -73,13 +73,6 @@ void set_plain_block(Chain& c, const Board& board, const Option& option) {
         else if (c.stuck[to])
             c.redirects.push_back({q, -1});
     }
-    // Terms per destination when each move is applied on its own (jumps and
-    // overshoot rules followed), the finish included.
-    std::vector<int> in_moves(static_cast<std::size_t>(n) + 1, 0);
-    for (int s = 0; s < n; ++s)
-        for (int m = 0; m <= option.max_move(); ++m)
-            if (option.weight[m] != 0) ++in_moves[move_destination(board, s, m)];
-    c.max_in_moves = *std::max_element(in_moves.begin(), in_moves.end());
 }
 
 }  // namespace
@@ -106,6 +99,9 @@ Chain build_chain(const Board& board, const Option& option, int start) {
     const long double den = static_cast<long double>(option.denominator);
     std::vector<std::pair<int, std::uint64_t>> row;
     std::vector<int> in_degree(static_cast<std::size_t>(n) + 1, 0);
+    // Terms per destination when each move is applied on its own (jumps and
+    // overshoot rules followed), the finish included: the plain block's sums.
+    std::vector<int> in_moves(static_cast<std::size_t>(n) + 1, 0);
     for (int s = 0; s < n; ++s) {
         row.clear();
         // Moves that end back on s (overshoot under stay, moves of 0) are merged
@@ -114,6 +110,7 @@ Chain build_chain(const Board& board, const Option& option, int start) {
         for (int m = 0; m <= option.max_move(); ++m) {
             if (option.weight[m] == 0) continue;
             const int d = move_destination(board, s, m);
+            ++in_moves[d];
             if (d == s)
                 stay += option.weight[m];
             else
@@ -154,6 +151,7 @@ Chain build_chain(const Board& board, const Option& option, int start) {
         c.finish[s] = static_cast<long double>(c.finish_weight[s]) / den;
     }
     c.max_in_degree = *std::max_element(in_degree.begin(), in_degree.end());
+    c.max_in_moves = *std::max_element(in_moves.begin(), in_moves.end());
     c.resting.resize(n);
     for (int s = 0; s < n; ++s) c.resting[s] = board.after_jumps[s] == s ? 1 : 0;
     mark_stuck(c);
