@@ -21,6 +21,21 @@
 using namespace overshoot;
 using overshoot::testing::opts;
 
+namespace {
+
+// Runs a search on one thread and on two: the JSON must be the same (the
+// one-thread result is returned).
+SearchResult same_on_one_and_two_threads(SearchSpec spec) {
+    spec.threads = 1;
+    const SearchResult a = search_board(spec);
+    spec.threads = 2;
+    const SearchResult b = search_board(spec);
+    CHECK(render::search_json(a, spec).dump() == render::search_json(b, spec).dump());
+    return a;
+}
+
+}  // namespace
+
 TEST_CASE("search: one added jump is every jump, ranked by the tournament's margins", "[search]") {
     SearchSpec spec;
     spec.board = make_board(9, Overshoot::stay, {});
@@ -64,12 +79,8 @@ TEST_CASE("search: a beam search is the same for the same seed, whatever the thr
     spec.sample = 20;
     spec.keep = 3;
     spec.seed = 7;
-    spec.threads = 1;
-    const SearchResult a = search_board(spec);
-    spec.threads = 2;
-    const SearchResult b = search_board(spec);
+    const SearchResult a = same_on_one_and_two_threads(spec);
     CHECK_FALSE(a.exhaustive);
-    CHECK(render::search_json(a, spec).dump() == render::search_json(b, spec).dump());
     // The board's own jump stays; the search only adds.
     for (const auto& f : a.best) CHECK(std::find(f.board.jumps.begin(), f.board.jumps.end(), Jump{5, 9}) != f.board.jumps.end());
     // At least as good as the best single jump: the beam starts from those boards.
@@ -213,12 +224,8 @@ TEST_CASE("search: head starts with jumps are a seeded beam, the same whatever t
     spec.beam = 3;
     spec.sample = 25;
     spec.keep = 4;
-    spec.threads = 1;
-    const SearchResult a = search_board(spec);
-    spec.threads = 2;
-    const SearchResult b = search_board(spec);
+    const SearchResult a = same_on_one_and_two_threads(spec);
     CHECK_FALSE(a.exhaustive);
-    CHECK(render::search_json(a, spec).dump() == render::search_json(b, spec).dump());
     for (const auto& f : a.best) {
         CHECK(f.added.size() <= 1);
         for (int s : f.starts) CHECK((s >= 0 && s <= 5));

@@ -68,13 +68,18 @@ std::string bare_points(double margin) {
     return s.substr(0, s.size() - std::string(" points").size());
 }
 
+// The option a stretch prefers, or "undecided" (escape it for a table's language).
+std::string preferred_name(const SweepResult& r, const PairSweep& p, const Stretch& st) {
+    return st.verdict > 0 ? r.options[p.a].name : st.verdict < 0 ? r.options[p.b].name : "undecided";
+}
+
 // "1d6 at 10..115 (0.1678 to 28.3000 points); 2d6 at 116..200 (...)": who is
 // preferred over which lengths and by how much, also when nothing changes.
 std::string stretches_text(const SweepResult& r, const PairSweep& p, const std::vector<int>& lengths) {
     std::string out;
     for (const Stretch& st : preference_stretches(p, lengths)) {
         const std::string where = st.first == st.last ? fmt::format("{}", st.first) : fmt::format("{}..{}", st.first, st.last);
-        const std::string who = st.verdict > 0 ? r.options[p.a].name : st.verdict < 0 ? r.options[p.b].name : "undecided";
+        const std::string who = preferred_name(r, p, st);
         const std::string by = st.least == st.most ? points(st.least)
                                                    : fmt::format("{} to {}", bare_points(st.least), points(st.most));
         out += fmt::format("{}{} at {} ({}{})", out.empty() ? "" : "; ", who, where, st.verdict == 0 ? "margins " : "by ",
@@ -283,10 +288,7 @@ std::string sweep_markdown(const SweepResult& r) {
         for (const auto& p : vs.pairs)
             for (const Stretch& st : preference_stretches(p, vs.lengths))
                 out += fmt::format("| {} | {} | {} | {}..{} | {} | {} |\n", md_escape(r.options[p.a].name),
-                                   md_escape(r.options[p.b].name),
-                                   st.verdict > 0 ? md_escape(r.options[p.a].name)
-                                   : st.verdict < 0 ? md_escape(r.options[p.b].name) : std::string("undecided"),
-                                   st.first, st.last, bare_points(st.least), bare_points(st.most));
+                                   md_escape(r.options[p.b].name), md_escape(preferred_name(r, p, st)), st.first, st.last, bare_points(st.least), bare_points(st.most));
         out += "\n**Crossovers:**" + std::string(vs.crossovers.empty() ? " none.\n" : "\n\n");
         for (const auto& c : vs.crossovers)
             out += fmt::format("- {} vs {}: {} preferred up to {}, {} from {}\n", md_escape(r.options[c.a].name),
@@ -312,10 +314,7 @@ std::string sweep_latex(const SweepResult& r) {
         for (const auto& p : vs.pairs)
             for (const Stretch& st : preference_stretches(p, vs.lengths))
                 out += fmt::format("{} & {} & {} & {}--{} & {} & {} \\\\\n", latex_escape(r.options[p.a].name),
-                                   latex_escape(r.options[p.b].name),
-                                   st.verdict > 0 ? latex_escape(r.options[p.a].name)
-                                   : st.verdict < 0 ? latex_escape(r.options[p.b].name) : std::string("undecided"),
-                                   st.first, st.last, bare_points(st.least), bare_points(st.most));
+                                   latex_escape(r.options[p.b].name), latex_escape(preferred_name(r, p, st)), st.first, st.last, bare_points(st.least), bare_points(st.most));
         out += "\\bottomrule\n\\end{tabular}\n% margins in percentage points\n";
     }
     const std::string note = sweep_bound_note(r);
